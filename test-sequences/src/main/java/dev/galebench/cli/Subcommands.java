@@ -1,0 +1,14 @@
+package dev.galebench.cli;
+
+import java.util.List;
+
+/** The one place where subcommands are registered; each line is one command of the tool. */
+final class Subcommands {
+    private Subcommands() {
+    }
+
+    static List<Object> all() {
+        return List.of(
+        );
+    }
+}
