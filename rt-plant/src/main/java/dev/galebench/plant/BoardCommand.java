@@ -32,6 +32,19 @@ public final class BoardCommand {
     /** Request a reset of latched trips (edge-triggered by the plant). */
     public static final int CMD_TRIP_RESET = 1 << 3;
 
+    /** boardStatus bit: the controller is running (converters under control). */
+    public static final int BOARD_RUNNING = 1;
+    /** boardStatus bit: fault ride-through is active. */
+    public static final int BOARD_FRT_ACTIVE = 1 << 1;
+    /** boardStatus bit: the controller's own protection tripped (see the board's log). */
+    public static final int BOARD_TRIPPED = 1 << 2;
+    /** boardStatus bit: pitch control is active (above rated). */
+    public static final int BOARD_PITCH_ACTIVE = 1 << 3;
+    /** boardStatus bit: the controller commands the braking chopper. */
+    public static final int BOARD_CHOPPER_ON = 1 << 4;
+    /** boardStatus bit: the PLL is locked. */
+    public static final int BOARD_PLL_LOCKED = 1 << 5;
+
     public double mscDutyA, mscDutyB, mscDutyC;
     public double gscDutyA, gscDutyB, gscDutyC;
     public double chopperDuty;
