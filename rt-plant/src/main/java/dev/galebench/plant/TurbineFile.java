@@ -191,15 +191,13 @@ public final class TurbineFile {
                 problems.add(sourceName + ": " + key.name() + ": missing (" + key.meaning() + ", unit " + key.unit() + ")");
             }
         }
+        checkRanges(values, lines, sourceName, problems, false);
         if (problems.isEmpty()) {
             Map<String, Double> ordered = new LinkedHashMap<>();
             for (Key key : KEYS) {
                 ordered.put(key.name(), values.get(key.name()));
             }
-            checkRanges(ordered, lines, sourceName, problems);
-            if (problems.isEmpty()) {
-                checkConsistency(new TurbineParameters(ordered), lines, sourceName, problems);
-            }
+            checkConsistency(new TurbineParameters(ordered), lines, sourceName, problems);
             if (problems.isEmpty()) {
                 return new TurbineParameters(ordered);
             }
@@ -214,7 +212,7 @@ public final class TurbineFile {
     public static void validate(TurbineParameters p, String sourceName) {
         List<String> problems = new ArrayList<>();
         Map<String, Integer> noLines = Map.of();
-        checkRanges(p.values(), noLines, sourceName, problems);
+        checkRanges(p.values(), noLines, sourceName, problems, true);
         if (problems.isEmpty()) {
             checkConsistency(p, noLines, sourceName, problems);
         }
@@ -283,11 +281,13 @@ public final class TurbineFile {
     }
 
     private static void checkRanges(Map<String, Double> values, Map<String, Integer> lines, String src,
-                                    List<String> problems) {
+                                    List<String> problems, boolean reportMissing) {
         for (Key key : KEYS) {
             Double boxed = values.get(key.name());
             if (boxed == null) {
-                problems.add(src + ": " + key.name() + ": missing");
+                if (reportMissing) {
+                    problems.add(src + ": " + key.name() + ": missing");
+                }
                 continue;
             }
             double v = boxed;

@@ -61,7 +61,8 @@ class TurbineFileTest {
         assertTrue(m.contains(f + ":" + radiusLine + ": rotor.radius_m: expected a number, found 'fifty'"), m);
         assertTrue(m.contains(f + ":" + typoLine + ": rotor.cut_out_wnd_m_s: unknown parameter"), m);
         assertTrue(m.contains(f + ": grid.x_over_r: missing"), m);
-        assertEquals(3, m.split("\n").length, m);
+        assertTrue(m.contains(f + ":" + lineOf(text, "pole_pairs: 60.5") + ": generator.pole_pairs: must be a whole number"), m);
+        assertEquals(4, m.split("\n").length, m);
     }
 
     @Test
