@@ -112,7 +112,7 @@ public final class CobsFramer {
                 return MALFORMED;
             }
             final int n = Cobs.decode(s, blockStart, blockLength, dst, 0, dst.length);
-            return n < 0 ? MALFORMED : n;
+            return n <= 0 ? MALFORMED : n; // a block that decodes to nothing is not a frame
         }
     }
 }
