@@ -28,6 +28,6 @@ public final class RunReports {
         Files.createDirectories(runDir);
         SummaryJson.write(runDir, in);
         JunitXml.write(runDir, in);
-        // report.html: added with the HTML report writer
+        HtmlReport.write(runDir, in);
     }
 }

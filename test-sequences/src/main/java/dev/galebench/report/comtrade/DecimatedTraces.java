@@ -117,6 +117,68 @@ public final class DecimatedTraces {
         return new DecimatedTraces(List.copyOf(out), read, lastTime[0]);
     }
 
+    /** A time window of one channel to read: {@code fromS..toS} (s since the first sample) in {@code buckets} equal slices. */
+    public record Window(String id, double fromS, double toS, int buckets) {
+        public Window {
+            if (!(toS > fromS) || buckets < 1) {
+                throw new IllegalArgumentException("window of '" + id + "' needs from < to and buckets >= 1, got "
+                        + fromS + ".." + toS + " s, " + buckets);
+            }
+        }
+    }
+
+    /**
+     * Reads several channel windows in ONE pass over the .dat (each plot of a report is one
+     * window; the file may be gigabytes). Buckets are equal slices of time, so zooms on short
+     * check windows keep full resolution. Returns one trace per window, in order; a window of an
+     * unknown channel gives an empty trace.
+     */
+    public static List<Trace> readWindows(ComtradeReader reader, List<Window> windows) throws IOException {
+        ComtradeConfig cfg = reader.config();
+        final int count = windows.size();
+        final int[] aIdx = new int[count];
+        final int[] sIdx = new int[count];
+        final double[] from = new double[count];
+        final double[] to = new double[count];
+        final int[] buckets = new int[count];
+        final int[] current = new int[count];
+        final Builder[] builders = new Builder[count];
+        for (int i = 0; i < count; i++) {
+            Window w = windows.get(i);
+            aIdx[i] = cfg.analogIndexOf(w.id());
+            sIdx[i] = aIdx[i] < 0 ? cfg.statusIndexOf(w.id()) : -1;
+            from[i] = w.fromS();
+            to[i] = w.toS();
+            buckets[i] = w.buckets();
+            current[i] = -1;
+            builders[i] = new Builder(w.buckets());
+        }
+        reader.read((n, t, analog, status) -> {
+            for (int i = 0; i < count; i++) {
+                if (t < from[i] || t > to[i] || (aIdx[i] < 0 && sIdx[i] < 0)) {
+                    continue;
+                }
+                int b = (int) ((t - from[i]) / (to[i] - from[i]) * buckets[i]);
+                if (b >= buckets[i]) {
+                    b = buckets[i] - 1;
+                }
+                if (b != current[i]) {
+                    builders[i].closeBucket();
+                    current[i] = b;
+                }
+                builders[i].add(t, aIdx[i] >= 0 ? analog[aIdx[i]] : (status[sIdx[i]] ? 1.0 : 0.0));
+            }
+        });
+        List<Trace> out = new ArrayList<>(count);
+        for (int i = 0; i < count; i++) {
+            builders[i].closeBucket();
+            String id = windows.get(i).id();
+            String unit = aIdx[i] >= 0 ? cfg.analogChannels.get(aIdx[i]).unit() : sIdx[i] >= 0 ? "state" : "";
+            out.add(builders[i].build(id, unit));
+        }
+        return out;
+    }
+
     private static java.nio.file.Path datPathOf(ComtradeReader reader) {
         return reader.datPath();
     }
