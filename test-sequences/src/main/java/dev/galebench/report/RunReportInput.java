@@ -126,6 +126,31 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         public Builder timingLogFileName(String v) { timingLogFileName = v; return this; }
         public Builder plotSignals(List<String> v) { plotSignals = v; return this; }
 
+        /**
+         * Takes everything the real-time loop measured: timing histograms, overruns, exchanges,
+         * link counters, samples missed by all consumers, step and exchange settings, plant
+         * time. A run stopped by an abort or an error gets {@code abortedReason} = stop reason
+         * and detail; a plant trip is a completed run whose checks judge it. The verdict stays
+         * the caller's.
+         */
+        public Builder fromLoop(dev.galebench.rt.LoopResult r) {
+            latenessNs = r.latenessNs;
+            computeNs = r.computeNs;
+            roundTripNs = r.roundTripNs;
+            overruns = r.overruns;
+            exchanges = r.exchanges;
+            link = r.linkCounters;
+            samplesDropped = r.totalSamplesMissed();
+            stepPeriodNs = r.config.stepPeriodNs;
+            exchangeEverySteps = r.config.exchangeEverySteps;
+            plantDurationS = r.steps * (double) r.config.stepPeriodNs * 1e-9;
+            if (r.aborted()) {
+                abortedReason = r.stopReason.name().toLowerCase(java.util.Locale.ROOT)
+                        + (r.stopDetail == null || r.stopDetail.isEmpty() ? "" : ": " + r.stopDetail);
+            }
+            return this;
+        }
+
         public RunReportInput build() {
             return new RunReportInput(sequenceName, sequenceFile, description, passed, abortedReason, checks,
                     latenessNs, computeNs, roundTripNs, overruns, exchanges, link, samplesDropped, environment,
