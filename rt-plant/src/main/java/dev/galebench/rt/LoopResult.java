@@ -47,6 +47,8 @@ public final class LoopResult {
     public final long[] samplesMissed;
     /** Exceptions each consumer threw, same order. */
     public final long[] consumerErrors;
+    /** Replies that passed supervision (link-valid, newest, in range) and were applied. */
+    public final long repliesApplied;
     /** Copy of the link's counters at the end. */
     public final LinkCounters linkCounters;
     /** Latched plant trip bits at the end. */
@@ -65,7 +67,7 @@ public final class LoopResult {
     LoopResult(LoopConfig config, long exchanges, long steps, long overruns, long skippedExchanges,
                Histogram latenessNs, Histogram computeNs, Histogram roundTripNs, Histogram replyAgeExchanges,
                long clampedTimingValues, List<String> consumerNames, long[] samplesMissed, long[] consumerErrors,
-               LinkCounters linkCounters, int tripFlags, StopReason stopReason, String stopDetail,
+               long repliesApplied, LinkCounters linkCounters, int tripFlags, StopReason stopReason, String stopDetail,
                long wallTimeNs, String pinning, byte[] intervalLogBody, long baseTimeMs) {
         this.config = config;
         this.exchanges = exchanges;
@@ -80,6 +82,7 @@ public final class LoopResult {
         this.consumerNames = List.copyOf(consumerNames);
         this.samplesMissed = samplesMissed;
         this.consumerErrors = consumerErrors;
+        this.repliesApplied = repliesApplied;
         this.linkCounters = linkCounters;
         this.tripFlags = tripFlags;
         this.stopReason = stopReason;

@@ -168,7 +168,7 @@ public final class RealTimeLoop {
         return new LoopResult(config, timings.exchanges.get(), timings.steps.get(), timings.overruns.get(),
                 timings.skippedExchanges.get(), timings.copyTotal(timings.lateness), timings.copyTotal(timings.compute),
                 timings.copyTotal(timings.rtt), timings.copyTotal(timings.replyAge),
-                timings.snapshot().clampedValues(), consumerNames, missed, errors, countersCopy, plant.tripFlags(),
+                timings.snapshot().clampedValues(), consumerNames, missed, errors, supervisor.repliesApplied(), countersCopy, plant.tripFlags(),
                 stopReason, stopDetail, wallTimeNs, pinning, timings.intervalLogBody(), timings.baseTimeMs());
     }
 
