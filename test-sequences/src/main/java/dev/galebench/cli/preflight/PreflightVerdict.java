@@ -23,28 +23,40 @@ public record PreflightVerdict(boolean sustainable, List<String> reasons) {
     public static final long RESOLUTION_NS = 1_000;
 
     public static PreflightVerdict judge(SpinFloor.Result floor, LoopResult loop) {
+        return judge(floor.stalls(), floor.latenessNs().getValueAtPercentile(99.9), loop.overruns,
+                loop.latenessNs.getValueAtPercentile(99.9),
+                loop.aborted() ? loop.stopReason + " " + loop.stopDetail : null, loop.repliesApplied);
+    }
+
+    /**
+     * The rules on plain numbers.
+     *
+     * @param stoppedEarly null if the loop ran its full duration, else why it stopped
+     */
+    public static PreflightVerdict judge(long floorStalls, long floorP999Ns, long loopOverruns, long loopP999Ns,
+                                         String stoppedEarly, long repliesApplied) {
         List<String> why = new ArrayList<>();
         boolean ok = true;
-        if (loop.overruns > floor.stalls()) {
+        if (loopOverruns > floorStalls) {
             ok = false;
-            why.add("loop overruns " + loop.overruns + " > floor stalls " + floor.stalls());
+            why.add("loop overruns " + loopOverruns + " > floor stalls " + floorStalls);
         } else {
-            why.add("loop overruns " + loop.overruns + " <= floor stalls " + floor.stalls());
+            why.add("loop overruns " + loopOverruns + " <= floor stalls " + floorStalls);
         }
-        final long floorP999 = Math.max(RESOLUTION_NS, floor.latenessNs().getValueAtPercentile(99.9));
-        final long loopP999 = loop.latenessNs.getValueAtPercentile(99.9);
-        final double limit = LATENESS_RATIO * floorP999;
-        if (loopP999 > limit) {
+        final long floorRef = Math.max(RESOLUTION_NS, floorP999Ns);
+        final double limit = LATENESS_RATIO * floorRef;
+        final String cmp = String.format(java.util.Locale.ROOT, "loop lateness p99.9 %.2f us %s %.1f x floor p99.9 %.2f us%s",
+                loopP999Ns / 1e3, loopP999Ns > limit ? ">" : "<=", LATENESS_RATIO, floorP999Ns / 1e3,
+                floorP999Ns < RESOLUTION_NS ? " (taken as 1 us)" : "");
+        if (loopP999Ns > limit) {
             ok = false;
-            why.add(String.format("loop lateness p99.9 %.1f us > %.1f x floor %.1f us", loopP999 / 1e3, LATENESS_RATIO, floorP999 / 1e3));
-        } else {
-            why.add(String.format("loop lateness p99.9 %.1f us <= %.1f x floor %.1f us", loopP999 / 1e3, LATENESS_RATIO, floorP999 / 1e3));
         }
-        if (loop.aborted()) {
+        why.add(cmp);
+        if (stoppedEarly != null) {
             ok = false;
-            why.add("loop run stopped early: " + loop.stopReason + " " + loop.stopDetail);
+            why.add("loop run stopped early: " + stoppedEarly);
         }
-        if (loop.linkCounters.repliesAccepted == 0) {
+        if (repliesApplied == 0) {
             ok = false;
             why.add("the board never answered");
         }
