@@ -52,6 +52,9 @@ class LinkSupervisionTest {
     void shouldDropAndCountDuplicateReply() throws Exception {
         LoopResult r = run(seq -> seq == 10 ? EchoBoardLink.DUPLICATE : EchoBoardLink.NORMAL, 100);
         assertEquals(1, r.linkCounters.duplicateReplies);
+        @SuppressWarnings("unchecked")
+        java.util.Map<String, Object> link = (java.util.Map<String, Object>) r.summary().get("link");
+        assertEquals(1L, link.get("duplicate_replies"));
         assertEquals(101, r.linkCounters.repliesAccepted, "the link passed both copies");
         assertEquals(100, r.repliesApplied);
         assertEquals(0, r.linkCounters.staleReplies);
