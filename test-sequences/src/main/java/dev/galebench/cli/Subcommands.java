@@ -9,6 +9,7 @@ final class Subcommands {
 
     static List<Object> all() {
         return List.of(
+                new dev.galebench.runner.SequencesCommand()
         );
     }
 }
