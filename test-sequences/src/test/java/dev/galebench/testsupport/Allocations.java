@@ -10,6 +10,13 @@ public final class Allocations {
     private Allocations() {
     }
 
+    static {
+        // the first calls allocate inside the management bean; warm it up once
+        for (int i = 0; i < 1000; i++) {
+            BEAN.getThreadAllocatedBytes(Thread.currentThread().getId());
+        }
+    }
+
     public static long threadAllocatedBytes() {
         return BEAN.getThreadAllocatedBytes(Thread.currentThread().getId());
     }
