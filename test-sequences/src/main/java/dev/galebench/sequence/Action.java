@@ -100,11 +100,12 @@ public sealed interface Action {
     }
 
     /**
-     * A link fault for {@code durationS}: {@code drop} loses every {@code everyNth} reply,
-     * {@code delay} holds replies back by {@code delayExchanges} exchanges, {@code silence} makes
-     * the board stop answering (the watchdog should trip).
+     * A link fault for {@code durationS} on the reply path: each reply is dropped, delayed by
+     * {@code delayExchanges}, duplicated or corrupted with probability {@code rate} (a seeded,
+     * deterministic sequence), or, for {@code silence}, every reply is lost (the watchdog should
+     * trip).
      */
-    record LinkFault(double atS, SourceMark mark, LinkFaultKind faultKind, double durationS, int everyNth,
+    record LinkFault(double atS, SourceMark mark, LinkFaultKind faultKind, double durationS, double rate,
                      int delayExchanges) implements Action {
         public String kind() { return "link_fault"; }
         public double extentS() { return durationS; }

@@ -7,10 +7,10 @@ package dev.galebench.sequence;
  */
 public interface LinkFaultControl {
     /**
-     * Starts fault {@code kind}; {@code everyNth} applies to {@link LinkFaultKind#DROP},
-     * {@code delayExchanges} to {@link LinkFaultKind#DELAY}.
+     * Starts fault {@code kind} with per-reply probability {@code rate} (1 for
+     * {@link LinkFaultKind#SILENCE}); {@code delayExchanges} applies to {@link LinkFaultKind#DELAY}.
      */
-    void begin(LinkFaultKind kind, int everyNth, int delayExchanges);
+    void begin(LinkFaultKind kind, double rate, int delayExchanges);
 
     /** Ends the fault that is active. */
     void end();

@@ -43,7 +43,8 @@ public final class Schedule implements StepHook {
     private final double[][] shapeTable;
     private final long[] linkStart, linkEnd;
     private final LinkFaultKind[] linkKind;
-    private final int[] linkNth, linkDelay;
+    private final double[] linkRate;
+    private final int[] linkDelay;
     private final LinkFaultControl linkControl;
     private final List<String> log;
     private int linkCursor;
@@ -65,11 +66,11 @@ public final class Schedule implements StepHook {
         }
         int nl = b.links.size();
         linkStart = new long[nl]; linkEnd = new long[nl]; linkKind = new LinkFaultKind[nl];
-        linkNth = new int[nl]; linkDelay = new int[nl];
+        linkRate = new double[nl]; linkDelay = new int[nl];
         for (int i = 0; i < nl; i++) {
             Action.LinkFault f = b.links.get(i);
             linkStart[i] = b.linkStart.get(i); linkEnd[i] = b.linkEnd.get(i); linkKind[i] = f.faultKind();
-            linkNth[i] = f.everyNth(); linkDelay[i] = f.delayExchanges();
+            linkRate[i] = f.rate(); linkDelay[i] = f.delayExchanges();
         }
         this.linkControl = linkControl;
         this.log = Collections.unmodifiableList(new ArrayList<>(b.log));
@@ -170,7 +171,7 @@ public final class Schedule implements StepHook {
         if (lc < linkStart.length) {
             if (!linkActive && k >= linkStart[lc]) {
                 linkActive = true;
-                linkControl.begin(linkKind[lc], linkNth[lc], linkDelay[lc]);
+                linkControl.begin(linkKind[lc], linkRate[lc], linkDelay[lc]);
             }
             if (linkActive && k >= linkEnd[lc]) {
                 linkActive = false;

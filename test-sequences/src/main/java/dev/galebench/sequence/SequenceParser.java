@@ -242,26 +242,28 @@ public final class SequenceParser {
                     p.allowOnly("deviation_pu");
                     return new Action.VoltageRefStep(at, m, p.number("deviation_pu", -0.3, 0.3, "pu"));
                 default: {
-                    p.allowOnly("kind", "duration_s", "every_nth", "delay_exchanges");
+                    p.allowOnly("kind", "duration_s", "rate", "delay_exchanges");
                     String k = p.text("kind");
                     LinkFaultKind lk;
                     switch (k) {
                         case "drop": lk = LinkFaultKind.DROP; break;
                         case "delay": lk = LinkFaultKind.DELAY; break;
+                        case "duplicate": lk = LinkFaultKind.DUPLICATE; break;
+                        case "corrupt": lk = LinkFaultKind.CORRUPT; break;
                         case "silence": lk = LinkFaultKind.SILENCE; break;
                         default:
                             throw new SequenceException(p.markOf("kind"), "unknown link fault kind '" + k
-                                    + "'; valid: drop, delay, silence");
+                                    + "'; valid: drop, delay, duplicate, corrupt, silence");
                     }
-                    int nth = (int) p.integer("every_nth", 1, 1, 1_000_000);
+                    if (lk == LinkFaultKind.SILENCE && p.has("rate")) {
+                        throw new SequenceException(p.markOf("rate"), "silence drops every reply; it takes no 'rate'");
+                    }
+                    double rate = lk == LinkFaultKind.SILENCE ? 1.0 : p.number("rate", 1.0, 0.0, 1.0, "");
                     int delay = (int) p.integer("delay_exchanges", 1, 1, 1000);
-                    if (lk != LinkFaultKind.DROP && p.has("every_nth")) {
-                        throw new SequenceException(p.markOf("every_nth"), "every_nth applies to kind: drop only");
-                    }
                     if (lk != LinkFaultKind.DELAY && p.has("delay_exchanges")) {
                         throw new SequenceException(p.markOf("delay_exchanges"), "delay_exchanges applies to kind: delay only");
                     }
-                    return new Action.LinkFault(at, m, lk, p.positive("duration_s", "s"), nth, delay);
+                    return new Action.LinkFault(at, m, lk, p.positive("duration_s", "s"), rate, delay);
                 }
             }
         }

@@ -140,10 +140,10 @@ class ScheduleTest {
         long[] now = new long[1];
         LinkFaultControl link = new LinkFaultControl() {
             @Override
-            public void begin(LinkFaultKind kind, int everyNth, int delayExchanges) {
+            public void begin(LinkFaultKind kind, double rate, int delayExchanges) {
                 events[0] = now[0];
                 kinds[0] = kind.ordinal();
-                kinds[1] = everyNth;
+                kinds[1] = (int) Math.round(rate * 100);
             }
 
             @Override
@@ -151,7 +151,7 @@ class ScheduleTest {
                 events[1] = now[0];
             }
         };
-        Schedule s = compile("  - at_s: 0.5\n    link_fault: {kind: drop, duration_s: 1.0, every_nth: 7}\n", 3.0, link);
+        Schedule s = compile("  - at_s: 0.5\n    link_fault: {kind: drop, duration_s: 1.0, rate: 0.07}\n", 3.0, link);
         for (long k = 0; k < 60_000; k++) {
             now[0] = k;
             s.beforeStep(k, p);
