@@ -12,6 +12,7 @@ final class Subcommands {
         List<Object> commands = new ArrayList<>();
         commands.add(new dev.galebench.plant.cli.TurbineCommand());
         commands.add(new dev.galebench.board.BoardSubcommand());
+        commands.add(new dev.galebench.runner.SequencesCommand());
         return commands;
     }
 }
