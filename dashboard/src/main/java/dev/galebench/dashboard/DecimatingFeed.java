@@ -228,7 +228,7 @@ public final class DecimatingFeed implements SampleConsumer {
             if (b > 0) {
                 s.append(',');
             }
-            appendNumber(s, batchTimeS[b]);
+            appendNumber(s, Math.round(batchTimeS[b] * 1e6) / 1e6); // us resolution, short text
         }
         s.append("],\"min\":[");
         appendColumns(s, batchMin);
