@@ -43,7 +43,7 @@ public final class DecimatingFeed implements SampleConsumer {
     private final List<String> wanted;
     private final long bucketNs;
     private volatile TimingSource timingSource;
-    private final TimingSnapshot snapshot = new TimingSnapshot();
+    private final BenchCounters snapshot = new BenchCounters();
     private final Histogram lateness = new Histogram(1, HISTOGRAM_MAX_NS, 2);
     private final Histogram roundTrip = new Histogram(1, HISTOGRAM_MAX_NS, 2);
     private final StringBuilder text = new StringBuilder(8192);
@@ -302,7 +302,9 @@ public final class DecimatingFeed implements SampleConsumer {
                 source.read(snapshot);
                 m.put("exchanges", snapshot.exchanges);
                 m.put("overruns", snapshot.overruns);
-                m.put("samplesDropped", snapshot.samplesDropped);
+                if (snapshot.samplesDropped >= 0) {
+                    m.put("samplesDropped", snapshot.samplesDropped);
+                }
                 if (snapshot.linkPresent) {
                     ObjectNode k = m.putObject("link");
                     LinkCounters c = snapshot.link;
