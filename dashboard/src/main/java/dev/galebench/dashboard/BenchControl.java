@@ -50,4 +50,64 @@ public interface BenchControl {
 
     /** Injects the named link fault (one of {@link #linkFaults()}) for {@code durationS}. */
     ControlResult injectLinkFault(String fault, double durationS);
+
+    /**
+     * The bench of a scripted run ({@code run}/{@code demo --dashboard}): lists the one sequence
+     * being run, offers abort (which calls {@code abort}), refuses everything else.
+     */
+    static BenchControl watchOnly(String sequenceName, Runnable abort) {
+        return new BenchControl() {
+            private volatile boolean aborted;
+
+            @Override
+            public List<SequenceInfo> sequences() {
+                return List.of(new SequenceInfo(sequenceName, "this run", Double.NaN));
+            }
+
+            @Override
+            public boolean interactive() {
+                return false;
+            }
+
+            @Override
+            public List<String> linkFaults() {
+                return List.of();
+            }
+
+            @Override
+            public ControlResult startSequence(String name) {
+                return ControlResult.refused("this is a scripted run; start sequences with galebench serve");
+            }
+
+            @Override
+            public ControlResult abort() {
+                if (aborted) {
+                    return ControlResult.refused("abort already requested");
+                }
+                aborted = true;
+                abort.run();
+                return ControlResult.ok("abort requested");
+            }
+
+            @Override
+            public ControlResult setWind(double windMPerS) {
+                return ControlResult.refused("bench controls need galebench serve");
+            }
+
+            @Override
+            public ControlResult voltageEvent(double levelPu, double durationS) {
+                return ControlResult.refused("bench controls need galebench serve");
+            }
+
+            @Override
+            public ControlResult stepVoltageDeviationReference(double referencePu) {
+                return ControlResult.refused("bench controls need galebench serve");
+            }
+
+            @Override
+            public ControlResult injectLinkFault(String fault, double durationS) {
+                return ControlResult.refused("bench controls need galebench serve");
+            }
+        };
+    }
 }
