@@ -184,10 +184,25 @@ public final class RealTimeLoop {
 
     private void readTimings() {
         final long intervalMs = Math.max(1, config.timingIntervalNs / 1_000_000);
+        final long startMs = System.currentTimeMillis();
+        long nextLogMs = startMs + intervalMs;
         try {
             while (!Thread.currentThread().isInterrupted()) {
-                Thread.sleep(intervalMs);
-                timings.takeInterval();
+                final long nowMs = System.currentTimeMillis();
+                final boolean warmup = nowMs - startMs < LoopTimings.WARMUP_MS;
+                final long sleepMs = warmup ? Math.min(LoopTimings.WARMUP_SWAP_MS, nextLogMs - nowMs) : nextLogMs - nowMs;
+                if (sleepMs > 0) {
+                    Thread.sleep(sleepMs);
+                }
+                final long afterMs = System.currentTimeMillis();
+                final boolean log = afterMs >= nextLogMs;
+                timings.takeInterval(log);
+                if (log) {
+                    nextLogMs += intervalMs;
+                    if (nextLogMs <= afterMs) {
+                        nextLogMs = afterMs + intervalMs;
+                    }
+                }
             }
         } catch (InterruptedException e) {
             // end of run: run() takes the last interval itself
