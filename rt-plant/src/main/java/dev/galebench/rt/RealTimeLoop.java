@@ -245,8 +245,10 @@ public final class RealTimeLoop {
         sup.init(v);
         sup.beginExchange(0);
         final long t0 = System.nanoTime() + period;
-        l.send(0, v);
+        // round trips are timed from just before the send: on a busy machine the send system call
+        // may wake the board and be preempted until its reply is already waiting
         sup.onSent(0, System.nanoTime());
+        l.send(0, v);
 
         long k = 0;
         long exchange = 0;
@@ -333,9 +335,9 @@ public final class RealTimeLoop {
 
             exchange++;
             sup.beginExchange(exchange);
+            sup.onSent(exchange, System.nanoTime());
             l.send(exchange, v);
             end = System.nanoTime();
-            sup.onSent(exchange, end);
 
             if (realTime) {
                 t.lateness.record(latenessNs);
