@@ -70,6 +70,34 @@ class TurbinePlantSettledTest {
         assertTrue(after[index(plant, "v_term_neg_pu")] < 1e-3, "balanced source gives no negative sequence");
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource({"one-mass, drivetrain.two_mass, 0", "salient, generator.lq_h, 6.0e-4", "weak grid, grid.short_circuit_ratio, 3.0",
+        "no filters, measurement.current_filter_s, 0"})
+    void shouldStaySettledForVariantsOfTheTurbine(String name, String key, double value) {
+        TurbineParameters p = TurbineFile.defaults().with(key, value);
+        TurbineFile.validate(p, name);
+        OperatingPoint op = SteadyState.solve(p, 9.5, 1.0, 0.1);
+        TurbinePlant plant = new TurbinePlant(p, 50_000);
+        plant.initialise(op);
+        double[] before = new double[plant.signalCount()];
+        double[] after = new double[plant.signalCount()];
+        plant.sample(before);
+        new SteadyDriver(plant, op).run(20_000);
+        plant.sample(after);
+        assertEquals(0, plant.tripFlags());
+        for (String s : new String[] {"rotor_speed_rad_s", "generator_speed_rad_s", "t_shaft_nm", "t_gen_nm", "p_aero_w"}) {
+            int i = index(plant, s);
+            assertEquals(before[i], after[i], 1e-5 * Math.abs(before[i]), s);
+        }
+        for (String s : new String[] {"p_grid_w", "q_grid_var", "p_stator_w"}) {
+            int i = index(plant, s);
+            assertEquals(before[i], after[i], 1e-3 * p.ratedPowerW, s);
+        }
+        SensorView v = new SensorView();
+        plant.sense(v);
+        assertEquals(op.statorCurrentQA, v.statorCurrentQA, 2e-3 * Math.abs(op.statorCurrentQA), "measured i_q");
+    }
+
     static int index(PlantModel plant, String name) {
         for (int i = 0; i < plant.signalCount(); i++) {
             if (plant.signalName(i).equals(name)) {
