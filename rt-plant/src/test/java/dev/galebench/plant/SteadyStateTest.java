@@ -77,6 +77,18 @@ class SteadyStateTest {
     }
 
     @Test
+    void shouldFindTheReactivePowerThatHoldsTheTerminalVoltageOnAWeakGrid() {
+        TurbineParameters weak = p.with("grid.short_circuit_ratio", 1.5);
+        // at SCR 1.5 rated power at unity power factor at the terminal has no solution
+        assertThrows(IllegalArgumentException.class, () -> SteadyState.solve(weak, 12.0, 1.0, 0.0));
+        OperatingPoint held = SteadyState.solveAtTerminalVoltage(weak, 12.0, 1.0, 1.0);
+        assertEquals(1.0, held.terminalVoltagePu, 1e-9);
+        assertEquals(held.aeroPowerW, held.pocPowerW + held.lossesW, 1e-9 * p.ratedPowerW);
+        String m = assertThrows(IllegalArgumentException.class, () -> SteadyState.solveAtTerminalVoltage(p, 8.0, 0.3, 1.2)).getMessage();
+        assertTrue(m.startsWith("terminal voltage:"), m);
+    }
+
+    @Test
     void shouldRejectBadInputWithAClearMessage() {
         IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> SteadyState.solve(p, -1, 1, 0));
         assertTrue(e.getMessage().startsWith("wind:"), e.getMessage());
