@@ -75,9 +75,14 @@ final class Processes {
         }
 
         @Override
-        public void close() throws InterruptedException {
+        public void close() {
             if (process.isAlive()) {
-                stop();
+                try {
+                    stop();
+                } catch (InterruptedException e) {
+                    process.destroyForcibly();
+                    Thread.currentThread().interrupt();
+                }
             }
         }
     }
