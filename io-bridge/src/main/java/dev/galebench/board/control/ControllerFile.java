@@ -83,6 +83,7 @@ public final class ControllerFile {
         r("protection.cut_out_delay_s", 0.0, 3600.0);
         r("protection.cut_in_delay_s", 0.0, 3600.0);
         r("protection.restart_hysteresis_m_s", 0.0, 20.0);
+        r("timing.angle_advance_samples", 0.0, 5.0);
     }
 
     private static void r(String key, double min, double max) {

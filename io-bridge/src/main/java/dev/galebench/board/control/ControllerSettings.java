@@ -48,6 +48,7 @@ import java.util.Map;
  *   <tr><td>overvoltageFastPu, overvoltageFastDelayS</td><td>protection.overvoltage_fast_pu, protection.overvoltage_fast_delay_s</td><td>pu, s</td><td>1.25, 0.1</td></tr>
  *   <tr><td>overcurrentPu, overcurrentDelayS</td><td>protection.overcurrent_pu, protection.overcurrent_delay_s</td><td>pu of the hardware trip, s</td><td>0.9, 0.002</td></tr>
  *   <tr><td>dcOvervoltagePu, dcOvervoltageDelayS</td><td>protection.dc_overvoltage_pu, protection.dc_overvoltage_delay_s</td><td>pu of the hardware trip, s</td><td>0.97, 0.002</td></tr>
+ *   <tr><td>angleAdvanceSamples</td><td>timing.angle_advance_samples</td><td>control periods</td><td>0.5: the command holds over the next period, so its mean lags the sample by half a period (in-process); a board answering one exchange later needs 1.5</td></tr>
  *   <tr><td>windFilterS</td><td>protection.wind_filter_s</td><td>s</td><td>3</td></tr>
  *   <tr><td>cutOutDelayS, cutInDelayS</td><td>protection.cut_out_delay_s, protection.cut_in_delay_s</td><td>s</td><td>2, 10</td></tr>
  *   <tr><td>restartHysteresisMPerS</td><td>protection.restart_hysteresis_m_s</td><td>m/s</td><td>3 (cut-out), a quarter of it at cut-in</td></tr>
@@ -66,6 +67,7 @@ public final class ControllerSettings {
     public final double overvoltagePu, overvoltageDelayS, overvoltageFastPu, overvoltageFastDelayS;
     public final double overcurrentPu, overcurrentDelayS, dcOvervoltagePu, dcOvervoltageDelayS;
     public final double windFilterS, cutOutDelayS, cutInDelayS, restartHysteresisMPerS;
+    public final double angleAdvanceSamples;
 
     /** From flat dotted keys, all present (the loader merges the defaults in first). */
     ControllerSettings(Map<String, Double> v) {
@@ -113,5 +115,6 @@ public final class ControllerSettings {
         cutOutDelayS = v.get("protection.cut_out_delay_s");
         cutInDelayS = v.get("protection.cut_in_delay_s");
         restartHysteresisMPerS = v.get("protection.restart_hysteresis_m_s");
+        angleAdvanceSamples = v.get("timing.angle_advance_samples");
     }
 }

@@ -70,6 +70,7 @@ public final class ReferenceController implements BoardController {
     private final LowPass mscPowerFilter = new LowPass();
     private final LowPass speedFilter = new LowPass();
     private final LowPass windFilter = new LowPass();
+    private final LowPass reactiveMean = new LowPass();
     private final CurrentLimiter limiter = new CurrentLimiter();
     private final FrtSupervisor frt = new FrtSupervisor();
     private final DelayRelay uvRelay = new DelayRelay();
@@ -85,10 +86,12 @@ public final class ReferenceController implements BoardController {
 
     // ---- state
     private double ts = 50e-6;
+    private double angleAdvanceS;
     private double prevIAlpha, prevIBeta;
     private double pitchIntegral, pitchCmdRad;
     private boolean frtWasActive;
     private double reactivePreFaultPu;
+    private double pllOffsetCos = 1.0, pllOffsetSin;
     private double activeCapPu;
     private boolean chopperOn;
     private int state;
@@ -188,6 +191,8 @@ public final class ReferenceController implements BoardController {
         mscPowerFilter.configure(0.002, ts);
         speedFilter.configure(s.speedFilterS, ts);
         windFilter.configure(s.windFilterS, ts);
+        reactiveMean.configure(0.1, ts);
+        angleAdvanceS = s.angleAdvanceSamples * ts;
         frt.configure(s.frtEnterPu, s.frtExitPu, s.frtHoldS);
         uvRelay.configure(s.undervoltageDelayS);
         uvFastRelay.configure(s.undervoltageFastDelayS);
@@ -231,6 +236,7 @@ public final class ReferenceController implements BoardController {
         vdcFilter.reset(in.dcLinkVoltageV);
         frt.reset();
         frtWasActive = false;
+        reactiveMean.reset(-iq / iBase);
         activeCapPu = limitFrt;
         chopperOn = false;
         idPu = id / iBase;
@@ -297,6 +303,7 @@ public final class ReferenceController implements BoardController {
         final double c = pll.cos();
         final double s = pll.sin();
         final double vd = Transforms.d(va, vb, c, s);
+        final double vq = Transforms.q(va, vb, c, s);
         final double id = Transforms.d(ia, ib, c, s);
         final double iq = Transforms.q(ia, ib, c, s);
         final double omega = pll.omegaRadPerS();
@@ -307,18 +314,35 @@ public final class ReferenceController implements BoardController {
         prevIBeta = ib;
         final double ed = ffD.step(Transforms.d(ea, eb, c, s));
         final double eq = ffQ.step(Transforms.q(ea, eb, c, s));
-        pll.step(va, vb);
         final double u = voltageFilter.step(Math.sqrt(va * va + vb * vb) / vBase);
         voltagePu = u;
 
         // ================= fault ride-through
         final double u0 = preFaultVoltage.value();
         final boolean frtActive = frt.step(u - u0, h);
+        // PLL input. Normal: the terminal voltage. During FRT the terminal voltage is largely
+        // made by the converter's own reactive current through the transformers and the grid
+        // (a 0.05 pu dip leaves about 0.3 pu at the terminal): locking on it is a positive
+        // feedback that drags the angle away. So during FRT the PLL follows the estimated grid
+        // EMF, turned by the pre-fault angle between terminal voltage and EMF: it still follows
+        // a phase jump of the grid, but not its own current.
+        if (frtActive && !frtWasActive) {
+            final double emfAngle = Math.atan2(eq, ed); // EMF angle in the (pre-fault) PLL frame
+            pllOffsetCos = Math.cos(-emfAngle);
+            pllOffsetSin = Math.sin(-emfAngle);
+        }
+        if (frtActive) {
+            pll.step(ea * pllOffsetCos - eb * pllOffsetSin, ea * pllOffsetSin + eb * pllOffsetCos);
+        } else {
+            pll.step(va, vb);
+        }
         if (!frtActive) {
             preFaultVoltage.step(u);
         }
         if (frtActive && !frtWasActive) {
-            reactivePreFaultPu = -iqRefPu;
+            // pre-fault reactive current: a 0.1 s mean, so the voltage loop's reaction to the
+            // first milliseconds of the dip (before detection) is not counted as pre-fault
+            reactivePreFaultPu = reactiveMean.value();
         }
         frtWasActive = frtActive;
 
@@ -333,11 +357,16 @@ public final class ReferenceController implements BoardController {
         if (overrideGscIqPu == overrideGscIqPu) {
             reactivePu = -overrideGscIqPu;
         }
+        if (!frtActive) {
+            reactiveMean.step(reactivePu);
+        }
 
         // ================= DC-voltage loop -> active current
         final double dcErr = vdc - vdcRef;
         final double pMsc = mscPowerFilter.step(mscPowerW);
-        final double idFf = pMsc / (1.5 * Math.max(vd, 0.2 * vBase));
+        // power-balance feed-forward: the active current that carries the machine-side power
+        // out, with the q-axis term (v_q i_q is not zero while the PLL tracks a phase shift)
+        final double idFf = (pMsc - 1.5 * vq * iqRefPu * iBase) / (1.5 * Math.max(vd, 0.2 * vBase));
         final double dcIntegralBefore = dcPi.integral();
         final double idWantA = dcPi.step(dcErr, h, false) + idFf;
         final double limit = frtActive ? limitFrt : limitNormal;
@@ -364,9 +393,23 @@ public final class ReferenceController implements BoardController {
         final double vmax = modLimit * vdc * Transforms.INV_SQRT3;
         final double vmag = Math.sqrt(vcd * vcd + vcq * vcq);
         if (vmag > vmax) {
-            final double k = vmax / vmag;
-            vcd *= k;
-            vcq *= k;
+            // Over the modulation limit. Normally the vector is scaled back (angle kept).
+            // During FRT with capacitive current the d component is kept and q gets what is
+            // left: at the voltage recovery after a deep dip the capacitive current still
+            // flows and v_d = e_d - w L i_q is out of reach; a shortfall of v_d drives i_d down at
+            // once (L di_d/dt = v_d - e_d + w L i_q), so scaling would reverse the active current
+            // and charge the DC link from the grid (tested: DC trip at 0.05 pu dip recovery).
+            // In a swell (inductive current) scaling is the better choice: it keeps the angle
+            // that lets the absorbed current build up.
+            if (frtActive && iqRefPu < 0.0) {
+                vcd = vcd > vmax ? vmax : (vcd < -vmax ? -vmax : vcd);
+                final double room = Math.sqrt(vmax * vmax - vcd * vcd);
+                vcq = vcq > room ? room : (vcq < -room ? -room : vcq);
+            } else {
+                final double k = vmax / vmag;
+                vcd *= k;
+                vcq *= k;
+            }
             gscPiD.resetTo(intD);
             gscPiQ.resetTo(intQ);
         }
@@ -455,12 +498,14 @@ public final class ReferenceController implements BoardController {
             out.gscDutyA = out.gscDutyB = out.gscDutyC = 0.5;
             out.commandFlags = 0;
         } else {
-            // the PLL angle has already advanced one sample: that advance compensates the
-            // one-sample computation and hold delay of the applied voltage
-            final double ca = pll.cos();
-            final double sn = pll.sin();
+            // angle advance for the delay between sampling and the mean of the applied voltage
+            final double adv = omega * angleAdvanceS;
+            final double cAdv = Math.cos(adv);
+            final double sAdv = Math.sin(adv);
+            final double ca = c * cAdv - s * sAdv;
+            final double sn = s * cAdv + c * sAdv;
             writeDuties(Transforms.alphaOf(vcd, vcq, ca, sn), Transforms.betaOf(vcd, vcq, ca, sn), vdc, out, true);
-            final double ea2 = thetaE + we * h;
+            final double ea2 = thetaE + we * angleAdvanceS;
             final double cm = Math.cos(ea2);
             final double sm = Math.sin(ea2);
             writeDuties(Transforms.alphaOf(vsd, vsq, cm, sm), Transforms.betaOf(vsd, vsq, cm, sm), vdc, out, false);
