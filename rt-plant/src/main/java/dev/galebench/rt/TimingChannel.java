@@ -1,0 +1,73 @@
+package dev.galebench.rt;
+
+import org.HdrHistogram.Histogram;
+import org.HdrHistogram.SingleWriterRecorder;
+
+import java.util.concurrent.atomic.AtomicLong;
+
+/**
+ * One timing quantity (lateness, compute, round trip, reply age): a fixed-range
+ * {@link SingleWriterRecorder} written wait-free by the real-time thread, and a reader side
+ * that swaps intervals, recycles the previous interval histogram and accumulates a whole-run
+ * histogram. Values above the range are recorded as the highest trackable value and counted
+ * ({@link #clampedCount()}); negative values are recorded as 0 and counted too, because a
+ * fixed-range histogram never resizes (resizing would allocate on the writer).
+ *
+ * <p>Threads: {@link #record} from the real-time thread only; everything else from the reader
+ * (guarded by the owning {@link LoopTimings}' lock, never taken by the writer).
+ */
+final class TimingChannel {
+    static final int SIGNIFICANT_DIGITS = 3;
+
+    final String tag;
+    final long highestTrackable;
+    private final SingleWriterRecorder recorder;
+    private final AtomicLong clamped = new AtomicLong();
+    private final Histogram total;
+    private Histogram interval;
+
+    TimingChannel(String tag, long highestTrackable) {
+        this.tag = tag;
+        this.highestTrackable = highestTrackable;
+        this.recorder = new SingleWriterRecorder(1, highestTrackable, SIGNIFICANT_DIGITS);
+        this.total = new Histogram(1, highestTrackable, SIGNIFICANT_DIGITS);
+        this.total.setTag(tag);
+        this.interval = recorder.getIntervalHistogram();
+    }
+
+    /** Real-time thread: records {@code value}, clamped into [0, highestTrackable]. Wait-free, no allocation. */
+    void record(long value) {
+        long v = value;
+        if (v > highestTrackable) {
+            v = highestTrackable;
+            clamped.lazySet(clamped.get() + 1);
+        } else if (v < 0) {
+            v = 0;
+            clamped.lazySet(clamped.get() + 1);
+        }
+        recorder.recordValue(v);
+    }
+
+    /** Values clamped into the range so far. */
+    long clampedCount() {
+        return clamped.get();
+    }
+
+    /** Reader: swaps the interval, adds it to the total, returns the (reused) interval histogram, tagged. */
+    Histogram swapInterval() {
+        interval = recorder.getIntervalHistogram(interval);
+        interval.setTag(tag);
+        total.add(interval);
+        return interval;
+    }
+
+    /** Reader: the whole-run histogram so far (live object, copy before handing out). */
+    Histogram total() {
+        return total;
+    }
+
+    /** Reader: the last interval histogram (live object, copy before handing out). */
+    Histogram lastInterval() {
+        return interval;
+    }
+}
