@@ -107,6 +107,11 @@ public final class ReferenceController implements BoardController {
     private double overrideGscIqPu = Double.NaN;
     private double overrideMscIdA = Double.NaN;
 
+    /** The reference controller for the shipped default turbine and default controller settings. */
+    public static ReferenceController withDefaults() {
+        return new ReferenceController(dev.galebench.plant.TurbineFile.defaults(), ControllerFile.defaults());
+    }
+
     /** Controller for a turbine with the given settings. */
     public ReferenceController(TurbineParameters turbine, ControllerSettings settings) {
         this(ControllerTuning.derive(turbine, settings));
@@ -192,7 +197,9 @@ public final class ReferenceController implements BoardController {
         speedFilter.configure(s.speedFilterS, ts);
         windFilter.configure(s.windFilterS, ts);
         reactiveMean.configure(0.1, ts);
-        angleAdvanceS = s.angleAdvanceSamples * ts;
+        // the measured phase quantities lag by the known anti-alias filter of the front end
+        // (turbine file, measurement.voltage_filter_s): the output angle is advanced by it too
+        angleAdvanceS = s.angleAdvanceSamples * ts + t.turbine.voltageFilterTimeConstantS;
         frt.configure(s.frtEnterPu, s.frtExitPu, s.frtHoldS);
         uvRelay.configure(s.undervoltageDelayS);
         uvFastRelay.configure(s.undervoltageFastDelayS);
