@@ -48,9 +48,17 @@ public final class ControllerCommand implements Runnable {
 
         @Override
         public Integer call() throws JsonProcessingException {
-            final TurbineParameters turbine = turbineFile == null ? TurbineFile.defaults() : TurbineFile.load(turbineFile);
-            final ControllerSettings settings = ControllerFile.load(controllerFile);
-            final ControllerTuning tuning = ControllerTuning.derive(turbine, settings);
+            final ControllerTuning tuning;
+            try {
+                final TurbineParameters turbine = turbineFile == null ? TurbineFile.defaults() : TurbineFile.load(turbineFile);
+                final ControllerSettings settings = ControllerFile.load(controllerFile);
+                tuning = ControllerTuning.derive(turbine, settings);
+            } catch (IllegalArgumentException | java.io.UncheckedIOException e) {
+                final PrintWriter err = spec.commandLine().getErr();
+                err.println("galebench controller show: " + e.getMessage());
+                err.flush();
+                return 2;
+            }
             final PrintWriter out = spec.commandLine().getOut();
             if (json) {
                 out.println(new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT).writeValueAsString(tuning.toMap()));
