@@ -506,15 +506,18 @@ public final class ReferenceController implements BoardController {
             out.commandFlags = 0;
         } else {
             // angle advance for the delay between sampling and the mean of the applied voltage
+            // (a few hundredths of a radian: the series to the cubic term is exact to 1e-9)
             final double adv = omega * angleAdvanceS;
-            final double cAdv = Math.cos(adv);
-            final double sAdv = Math.sin(adv);
+            final double cAdv = 1.0 - 0.5 * adv * adv;
+            final double sAdv = adv - adv * adv * adv * (1.0 / 6.0);
             final double ca = c * cAdv - s * sAdv;
             final double sn = s * cAdv + c * sAdv;
             writeDuties(Transforms.alphaOf(vcd, vcq, ca, sn), Transforms.betaOf(vcd, vcq, ca, sn), vdc, out, true);
-            final double ea2 = thetaE + we * angleAdvanceS;
-            final double cm = Math.cos(ea2);
-            final double sm = Math.sin(ea2);
+            final double advE = we * angleAdvanceS;
+            final double cAdvE = 1.0 - 0.5 * advE * advE;
+            final double sAdvE = advE - advE * advE * advE * (1.0 / 6.0);
+            final double cm = ce * cAdvE - se * sAdvE;
+            final double sm = se * cAdvE + ce * sAdvE;
             writeDuties(Transforms.alphaOf(vsd, vsq, cm, sm), Transforms.betaOf(vsd, vsq, cm, sm), vdc, out, false);
             if (!mscOn) {
                 out.mscDutyA = out.mscDutyB = out.mscDutyC = 0.5;
