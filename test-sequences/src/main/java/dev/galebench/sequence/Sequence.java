@@ -32,14 +32,10 @@ public record Sequence(String name, String purpose, String source, Path baseDir,
      *
      * @param windMPerS         hub wind speed, m/s
      * @param gridVoltagePu     grid source voltage, pu
-     * @param reactivePowerPu   reactive power set point at the terminal, pu of rated power
+     * @param reactivePowerPu   reactive power at the terminal, pu of rated power
      *                          (positive = capacitive)
-     * @param shortCircuitRatio grid SCR, or NaN for the turbine file's value
-     * @param xOverR            grid X/R, or NaN for the turbine file's value
-     * @param gridFrequencyHz   grid frequency, or NaN for the turbine file's nominal
      */
-    public record Initial(double windMPerS, double gridVoltagePu, double reactivePowerPu, double shortCircuitRatio,
-                          double xOverR, double gridFrequencyHz) {
+    public record Initial(double windMPerS, double gridVoltagePu, double reactivePowerPu) {
     }
 
     /** Trip names a sequence may allow, with the plant's trip bits. */

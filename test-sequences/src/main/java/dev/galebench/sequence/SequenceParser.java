@@ -140,7 +140,7 @@ public final class SequenceParser {
                 actions.add(action(YamlObject.of(label, n, "an action")));
             }
             actions.sort(Comparator.comparingDouble(Action::atS));
-            Timeline.validate(actions, durationS, initial.gridFrequencyHz());
+            Timeline.validate(actions, durationS, Double.NaN);
             List<CheckDef> checks = new ArrayList<>();
             Set<String> names = new HashSet<>();
             for (Node n : top.list("checks")) {
@@ -168,14 +168,10 @@ public final class SequenceParser {
         }
 
         private Sequence.Initial initial(YamlObject o) {
-            o.allowOnly("wind_m_s", "grid_voltage_pu", "reactive_power_pu", "short_circuit_ratio", "x_over_r",
-                    "grid_frequency_hz");
+            o.allowOnly("wind_m_s", "grid_voltage_pu", "reactive_power_pu");
             return new Sequence.Initial(o.number("wind_m_s", 0, 40, "m/s"),
                     o.number("grid_voltage_pu", 1.0, 0.8, 1.2, "pu"),
-                    o.number("reactive_power_pu", 0.0, -1.0, 1.0, "pu"),
-                    o.number("short_circuit_ratio", Double.NaN, 1.0, 1000, ""),
-                    o.number("x_over_r", Double.NaN, 0.1, 100, ""),
-                    o.number("grid_frequency_hz", Double.NaN, 40, 70, "Hz"));
+                    o.number("reactive_power_pu", 0.0, -1.0, 1.0, "pu"));
         }
 
         /** An action item: {@code at_s} plus exactly one action key. */
