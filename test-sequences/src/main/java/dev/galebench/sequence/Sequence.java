@@ -17,6 +17,8 @@ import java.util.List;
  * @param initial    operating point the run starts settled in
  * @param stepUs     plant step, us
  * @param exchangeEvery plant steps per exchange with the board
+ * @param watchdogUs time without a valid reply after which the link watchdog blocks the
+ *                   converters and trips the plant, us
  * @param durationS  run length, s of plant time
  * @param allowedTrips plant trips that are part of the test (do not abort the run), e.g.
  *                   {@code link_watchdog}
@@ -24,7 +26,7 @@ import java.util.List;
  * @param checks     the checks, in file order
  */
 public record Sequence(String name, String purpose, String source, Path baseDir, String turbine, String controller,
-                       Initial initial, double stepUs, int exchangeEvery, double durationS, List<String> allowedTrips,
+                       Initial initial, double stepUs, int exchangeEvery, double watchdogUs, double durationS, List<String> allowedTrips,
                        List<Action> actions, List<CheckDef> checks) {
 
     /**

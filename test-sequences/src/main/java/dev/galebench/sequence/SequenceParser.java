@@ -121,9 +121,11 @@ public final class SequenceParser {
             Sequence.Initial initial = initial(top.object("initial"));
             double stepUs = 50;
             int exchangeEvery = 1;
+            double watchdogUs = 20_000;
             if (top.has("timing")) {
                 YamlObject t = top.object("timing");
-                t.allowOnly("step_us", "exchange_every");
+                t.allowOnly("step_us", "exchange_every", "watchdog_us");
+                watchdogUs = t.number("watchdog_us", 20_000, 1, 10_000_000, "us");
                 stepUs = t.number("step_us", 50, 1, 1000, "us");
                 if (Math.abs(stepUs * 1000 - Math.rint(stepUs * 1000)) > 1e-6) {
                     throw new SequenceException(t.markOf("step_us"), "step_us must be a whole number of ns");
@@ -154,7 +156,7 @@ public final class SequenceParser {
                 throw new SequenceException(top.mark(), "a sequence needs at least one check under 'checks'");
             }
             return new Sequence(name, purpose, label, baseDir, turbine, controller, initial, stepUs, exchangeEvery,
-                    durationS, List.copyOf(trips), List.copyOf(actions), List.copyOf(checks));
+                    watchdogUs, durationS, List.copyOf(trips), List.copyOf(actions), List.copyOf(checks));
         }
 
         private String tripName(Node n) {
