@@ -62,7 +62,8 @@ public final class HtmlReport {
             notices.add(notice("warn", "Samples dropped.", in.samplesDropped()
                     + " samples were missed by a consumer of the sample ring; recordings and streaming checks have gaps."));
         }
-        Recording rec = Recording.open(runDir, in.comtradeBaseName());
+        // the recording's time 0 is its first sample, exchange 0, at plant time M x h
+        Recording rec = Recording.open(runDir, in.comtradeBaseName(), in.stepPeriodNs() * (double) in.exchangeEverySteps() * 1e-9);
         if (rec.problem != null) {
             notices.add(notice("info", "No waveforms.", rec.problem));
         }
@@ -83,7 +84,7 @@ public final class HtmlReport {
             List<DecimatedTraces.Window> windows = new ArrayList<>();
             List<Object> keys = new ArrayList<>();
             for (String s : fullSignals) {
-                windows.add(new DecimatedTraces.Window(s, 0.0, rec.endS, BUCKETS_PER_PLOT));
+                windows.add(new DecimatedTraces.Window(s, 0.0, rec.endS - rec.offsetS, BUCKETS_PER_PLOT));
                 keys.add(s);
             }
             for (int i = 0; i < checks.size(); i++) {
@@ -95,13 +96,21 @@ public final class HtmlReport {
                 double margin = Math.max(0.25 * span, 0.01);
                 double from = Math.max(0.0, c.windowStartS() - margin);
                 double to = Math.min(rec.endS, c.windowEndS() + margin);
-                if (to > from) {
+                if (to > from && to > rec.offsetS) {
                     zoomRange[i] = new double[] {from, to};
-                    windows.add(new DecimatedTraces.Window(c.signal(), from, to, BUCKETS_PER_PLOT));
+                    windows.add(new DecimatedTraces.Window(c.signal(), Math.max(0.0, from - rec.offsetS), to - rec.offsetS,
+                            BUCKETS_PER_PLOT));
                     keys.add(i);
                 }
             }
-            List<DecimatedTraces.Trace> traces = DecimatedTraces.readWindows(rec.reader, windows);
+            List<DecimatedTraces.Trace> traces = new ArrayList<>();
+            for (DecimatedTraces.Trace t : DecimatedTraces.readWindows(rec.reader, windows)) {
+                double[] plantTimeS = t.timeS().clone();
+                for (int k = 0; k < plantTimeS.length; k++) {
+                    plantTimeS[k] += rec.offsetS;
+                }
+                traces.add(new DecimatedTraces.Trace(t.id(), t.unit(), plantTimeS, t.value()));
+            }
             for (int k = 0; k < traces.size(); k++) {
                 if (keys.get(k) instanceof String s) {
                     full.put(s, traces.get(k));
@@ -379,11 +388,15 @@ public final class HtmlReport {
     /** The run's COMTRADE recording, if there is a readable one. */
     private static final class Recording {
         ComtradeReader reader;
+        /** Plant time of the last record, s. */
         double endS;
+        /** Plant time of the first record, s. */
+        double offsetS;
         String problem;
 
-        static Recording open(Path runDir, String baseName) {
+        static Recording open(Path runDir, String baseName, double firstSamplePlantTimeS) {
             Recording r = new Recording();
+            r.offsetS = firstSamplePlantTimeS;
             if (baseName == null) {
                 r.problem = "This run was not recorded, so no signal can be plotted.";
                 return r;
@@ -400,8 +413,9 @@ public final class HtmlReport {
                     r.reader.read((n, t, a, s) -> last[0] = t);
                     r.endS = last[0];
                 }
-                if (r.endS <= 0) {
-                    r.endS = 1e-3;
+                r.endS += r.offsetS;
+                if (r.endS <= r.offsetS) {
+                    r.endS = r.offsetS + 1e-3;
                 }
             } catch (IOException | IllegalArgumentException e) {
                 r.reader = null;
