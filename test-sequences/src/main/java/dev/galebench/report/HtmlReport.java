@@ -62,6 +62,18 @@ public final class HtmlReport {
             notices.add(notice("warn", "Samples dropped.", in.samplesDropped()
                     + " samples were missed by a consumer of the sample ring; recordings and streaming checks have gaps."));
         }
+        RecordingStats rs = in.recording();
+        if (rs != null && rs.failure() != null) {
+            notices.add(notice("error", "Recording stopped.", "The COMTRADE recorder failed (" + rs.failure() + "); "
+                    + rs.unrecordedSamples() + " samples were not recorded."));
+        }
+        if (rs != null && rs.totalClamped() > 0) {
+            StringBuilder which = new StringBuilder();
+            rs.clampedSamples().forEach((k, n) -> which.append(which.length() == 0 ? "" : ", ").append(k).append(": ").append(n));
+            notices.add(notice("warn", "Clipped samples in the recording.", rs.totalClamped()
+                    + " samples were outside their channel's range and were recorded at the range limit (" + which
+                    + "). Flat tops at the limit in those plots are the range, not the signal."));
+        }
         // the recording's time 0 is its first sample, exchange 0, at plant time M x h
         Recording rec = Recording.open(runDir, in.comtradeBaseName(), in.stepPeriodNs() * (double) in.exchangeEverySteps() * 1e-9);
         if (rec.problem != null) {

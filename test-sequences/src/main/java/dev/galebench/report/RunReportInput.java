@@ -39,6 +39,7 @@ import java.util.Map;
  *   <tr><td>csvFileName</td><td>-</td><td>CSV file in the run folder, or null</td></tr>
  *   <tr><td>timingLogFileName</td><td>-</td><td>HdrHistogram interval log in the run folder (normally {@code timing.hlog}), or null</td></tr>
  *   <tr><td>plotSignals</td><td>-</td><td>extra signals to plot besides those the checks use (e.g. v_term_pu, v_dc_v)</td></tr>
+ *   <tr><td>recording</td><td>-</td><td>the COMTRADE recorder's counters ({@link RecordingStats#of}), or null</td></tr>
  * </table>
  */
 public record RunReportInput(String sequenceName, String sequenceFile, String description, boolean passed,
@@ -47,7 +48,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
                              LinkCounters link, long samplesDropped, Map<String, String> environment,
                              long stepPeriodNs, int exchangeEverySteps, Instant startedAt, double plantDurationS,
                              String comtradeBaseName, String csvFileName, String timingLogFileName,
-                             List<String> plotSignals) {
+                             List<String> plotSignals, RecordingStats recording) {
     public RunReportInput {
         if (sequenceName == null || sequenceName.isBlank()) {
             throw new IllegalArgumentException("sequence name is required");
@@ -99,6 +100,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         private String csvFileName;
         private String timingLogFileName;
         private List<String> plotSignals = List.of();
+        private RecordingStats recording;
 
         private Builder(String sequenceName) {
             this.sequenceName = sequenceName;
@@ -125,6 +127,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         public Builder csvFileName(String v) { csvFileName = v; return this; }
         public Builder timingLogFileName(String v) { timingLogFileName = v; return this; }
         public Builder plotSignals(List<String> v) { plotSignals = v; return this; }
+        public Builder recording(RecordingStats v) { recording = v; return this; }
 
         /**
          * Takes everything the real-time loop measured: timing histograms, overruns, exchanges,
@@ -155,7 +158,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
             return new RunReportInput(sequenceName, sequenceFile, description, passed, abortedReason, checks,
                     latenessNs, computeNs, roundTripNs, overruns, exchanges, link, samplesDropped, environment,
                     stepPeriodNs, exchangeEverySteps, startedAt, plantDurationS, comtradeBaseName, csvFileName,
-                    timingLogFileName, plotSignals);
+                    timingLogFileName, plotSignals, recording);
         }
     }
 }

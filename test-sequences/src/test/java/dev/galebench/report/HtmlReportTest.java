@@ -69,6 +69,9 @@ class HtmlReportTest {
         assertTrue(html.contains("<th>jvm_flags</th>"));
         assertTrue(html.contains("href=\"recording.cfg\""));
         assertTrue(html.contains("href=\"timing.hlog\""));
+        // the demo's 10 samples beyond the current range are reported, not hidden
+        assertTrue(html.contains("10 samples were outside their channel&#39;s range") && html.contains("i_grid_a_a: 10"),
+                "clamp notice");
         // the other two files exist too
         assertTrue(Files.size(out.resolve("summary.json")) > 0);
         assertTrue(Files.size(out.resolve("junit.xml")) > 0);

@@ -60,7 +60,7 @@ class RunFolderWithRealLoopTest {
 
         RunReportInput in = RunReportInput.builder("first_order_offline").fromLoop(result).passed(true)
                 .environment(RunEnvironment.capture()).comtradeBaseName("recording").csvFileName("signals.csv")
-                .timingLogFileName("timing.hlog").plotSignals(List.of("x_v")).build();
+                .timingLogFileName("timing.hlog").plotSignals(List.of("x_v")).recording(RecordingStats.of(recording)).build();
         RunReports.writeAll(dir, in);
         JsonNode summary = new ObjectMapper().readTree(dir.resolve("summary.json").toFile());
         assertEquals("pass", summary.get("verdict").asText());
@@ -68,6 +68,8 @@ class RunFolderWithRealLoopTest {
         assertEquals(2.0, summary.get("plant_duration_s").asDouble(), 1e-9);
         assertEquals(steps, summary.get("timing").get("compute_us").get("count").asLong());
         assertEquals(0, summary.get("samples_dropped").asLong());
+        assertEquals(steps, summary.get("recording").get("records").asLong());
+        assertEquals(0, summary.get("recording").get("gaps").asLong());
         String html = Files.readString(dir.resolve("report.html"));
         assertTrue(html.contains("<h1>first_order_offline</h1>"));
         assertTrue(html.contains("href=\"timing.hlog\""));
