@@ -90,7 +90,7 @@ class JunitXmlTest {
     }
 
     @Test
-    void schemaShouldRejectASuiteWithoutItsRequiredCounts(@TempDir Path dir) throws Exception {
+    void shouldHaveASchemaThatRejectsASuiteWithoutItsRequiredCounts(@TempDir Path dir) throws Exception {
         // the validation in the tests above can fail: a file missing required attributes is refused
         Path bad = dir.resolve("bad.xml");
         Files.writeString(bad, "<testsuites><testsuite name=\"x\"><testcase name=\"c\"/></testsuite></testsuites>");

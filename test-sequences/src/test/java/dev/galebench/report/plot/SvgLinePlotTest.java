@@ -99,7 +99,7 @@ class SvgLinePlotTest {
     }
 
     @Test
-    void minMaxDecimationShouldKeepExtremesInTimeOrder() {
+    void shouldKeepExtremesInTimeOrderWhenDecimating() {
         double[] x = ramp(1000, 1);
         double[] y = new double[1000];
         y[10] = -5;
