@@ -204,6 +204,7 @@ public final class HtmlReport {
         page.put("link_table", linkTable(in.link()));
         page.put("environment_rows", environmentRows(in));
         page.put("file_rows", fileRows(runDir, in));
+        page.put("channels", channelTable(rec, in.recording()));
         page.put("written_at", LocalDateTime.ofInstant(writtenAt, ZoneOffset.UTC).format(WHEN));
         return Template.of("report.html").render(page);
     }
@@ -382,6 +383,48 @@ public final class HtmlReport {
             rows.append(Template.of("file-row.html").render(Map.of("what", e.getKey(), "href", e.getValue(), "file", e.getValue())));
         }
         return rows.toString();
+    }
+
+    /** Scaling of every recorded channel, from the .cfg itself: range = b -+ 32767 a, resolution = a. */
+    private static String channelTable(Recording rec, RecordingStats stats) {
+        if (rec.reader == null) {
+            return "";
+        }
+        ComtradeConfig c = rec.reader.config();
+        StringBuilder rows = new StringBuilder();
+        for (ComtradeConfig.AnalogChannel ch : c.analogChannels) {
+            double low = ch.b() + ch.minCode() * ch.a();
+            double high = ch.b() + ch.maxCode() * ch.a();
+            // a and b are rounded to 9 digits, so a limit meant as 0 comes out as 1e-9 of the span
+            low = Math.abs(low) < ch.a() ? 0.0 : low;
+            high = Math.abs(high) < ch.a() ? 0.0 : high;
+            Long clamped = stats == null ? null : stats.clampedSamples().get(ch.id());
+            rows.append(Template.of("channel-row.html").render(Map.of("id", ch.id(), "unit", ch.unit(),
+                    "low", engineering(low), "high", engineering(high), "resolution", engineering(ch.a()),
+                    "clamped", stats == null ? "?" : Long.toString(clamped == null ? 0 : clamped))));
+        }
+        List<String> status = new ArrayList<>();
+        for (ComtradeConfig.StatusChannel ch : c.statusChannels) {
+            status.add(ch.id());
+        }
+        String rate = c.stampsCritical || c.sampleRates.isEmpty() ? "time-stamped rate"
+                : trim(c.sampleRates.get(c.sampleRates.size() - 1).rateHz()) + " Hz";
+        return Template.of("channels.html").render(Map.of("analog_count", Integer.toString(c.analogChannels.size()),
+                "status_count", Integer.toString(c.statusChannels.size()),
+                "records", String.format(Locale.ROOT, "%,d", c.announcedRecordCount()), "rate", rate,
+                "rows", rows.toString(), "status_names", status.isEmpty() ? "none" : String.join(", ", status)));
+    }
+
+    /** Four significant digits, plain notation for ordinary magnitudes. */
+    static String engineering(double v) {
+        if (v == 0) {
+            return "0";
+        }
+        double a = Math.abs(v);
+        if (a >= 1e-3 && a < 1e7) {
+            return new java.math.BigDecimal(v).round(new java.math.MathContext(4)).stripTrailingZeros().toPlainString();
+        }
+        return String.format(Locale.ROOT, "%.3e", v);
     }
 
     private static String notice(String level, String title, String text) {
