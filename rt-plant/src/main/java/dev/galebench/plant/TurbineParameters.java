@@ -1,5 +1,7 @@
 package dev.galebench.plant;
 
+import java.util.Collections;
+import java.util.LinkedHashMap;
 import java.util.Map;
 
 /**
@@ -77,6 +79,9 @@ public final class TurbineParameters {
     public final double gridFrequencyHz, shortCircuitRatio, gridXOverR;
     public final double currentFilterTimeConstantS, voltageFilterTimeConstantS;
 
+    /** The flat key/value map this instance was built from (file order kept), read-only. */
+    private final Map<String, Double> source;
+
     /**
      * Builds from flat dotted keys (see the class table). Every key is required here; defaults,
      * range and consistency checks with file/key/reason messages belong to the loader.
@@ -84,6 +89,7 @@ public final class TurbineParameters {
      * @throws IllegalArgumentException naming the first missing key
      */
     public TurbineParameters(Map<String, Double> v) {
+        source = Collections.unmodifiableMap(new LinkedHashMap<>(v));
         airDensityKgPerM3 = req(v, "rotor.air_density_kg_m3");
         rotorRadiusM = req(v, "rotor.radius_m");
         cpC1 = req(v, "rotor.cp_c1"); cpC2 = req(v, "rotor.cp_c2"); cpC3 = req(v, "rotor.cp_c3");
@@ -138,6 +144,30 @@ public final class TurbineParameters {
         gridXOverR = req(v, "grid.x_over_r");
         currentFilterTimeConstantS = req(v, "measurement.current_filter_s");
         voltageFilterTimeConstantS = req(v, "measurement.voltage_filter_s");
+    }
+
+    /**
+     * Every value by its file key (the map this instance was built from), read-only. Used by
+     * {@code galebench turbine show} and to derive variants with {@link #with}.
+     */
+    public Map<String, Double> values() {
+        return source;
+    }
+
+    /**
+     * A copy with one value replaced (for tests and studies, e.g. a salient machine or a weak
+     * grid). Not validated again: run {@link TurbineFile#validate} on the result if the value
+     * comes from a user.
+     *
+     * @throws IllegalArgumentException if {@code key} is not a parameter key
+     */
+    public TurbineParameters with(String key, double value) {
+        if (!source.containsKey(key)) {
+            throw new IllegalArgumentException("unknown turbine parameter '" + key + "'");
+        }
+        Map<String, Double> copy = new LinkedHashMap<>(source);
+        copy.put(key, value);
+        return new TurbineParameters(copy);
     }
 
     private static double req(Map<String, Double> v, String key) {

@@ -16,7 +16,8 @@ import dev.galebench.plant.SensorView;
  *   <li>answers an older sequence than the one accepted: stale, dropped;</li>
  *   <li>a duty outside [0, 1], a pitch reference outside the configured limits, or any of them
  *       NaN or infinite: invalid reference, dropped, last good command held;</li>
- *   <li>otherwise accepted. If it answers an older frame than the last one sent (reply age
+ *   <li>otherwise applied (the link already counted it in {@code repliesAccepted} when it passed
+ *       the wire checks; the loop counts it in {@link #repliesApplied()}). If it answers an older frame than the last one sent (reply age
  *       &gt; 0) it is applied and counted late; its round trip is recorded either way.</li>
  * </ol>
  *
@@ -51,6 +52,7 @@ final class LinkSupervisor {
     private boolean watchdogActive;
     private long rttSinceLastExchangeNs = -1;
     private long replyAge;
+    private long applied;
 
     LinkSupervisor(LinkCounters counters, TimingChannel rtt, double pitchMinRad, double pitchMaxRad, long watchdogExchanges) {
         this.counters = counters;
@@ -104,7 +106,7 @@ final class LinkSupervisor {
         pendingValid = true;
         lastAcceptedSeq = answered;
         lastValidExchange = currentExchange;
-        c.repliesAccepted++;
+        applied++;
         if (answered == lastSentSeq) {
             lastSentAnswered = true;
         } else {
@@ -166,6 +168,11 @@ final class LinkSupervisor {
     /** Age of the command in force at the last {@link #applyAtExchange}, in exchanges. */
     long replyAge() {
         return replyAge;
+    }
+
+    /** Replies that passed supervision and became (or will become) the command in force. */
+    long repliesApplied() {
+        return applied;
     }
 
     /** True while the watchdog holds the converters blocked. */

@@ -9,7 +9,9 @@ import java.io.PrintStream;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
+import java.util.LinkedHashMap;
 import java.util.List;
+import java.util.Map;
 
 /**
  * Everything a finished run of the {@link RealTimeLoop} reports. Histograms are copies of the
@@ -47,6 +49,8 @@ public final class LoopResult {
     public final long[] samplesMissed;
     /** Exceptions each consumer threw, same order. */
     public final long[] consumerErrors;
+    /** Replies that passed supervision (link-valid, newest, in range) and were applied. */
+    public final long repliesApplied;
     /** Copy of the link's counters at the end. */
     public final LinkCounters linkCounters;
     /** Latched plant trip bits at the end. */
@@ -65,7 +69,7 @@ public final class LoopResult {
     LoopResult(LoopConfig config, long exchanges, long steps, long overruns, long skippedExchanges,
                Histogram latenessNs, Histogram computeNs, Histogram roundTripNs, Histogram replyAgeExchanges,
                long clampedTimingValues, List<String> consumerNames, long[] samplesMissed, long[] consumerErrors,
-               LinkCounters linkCounters, int tripFlags, StopReason stopReason, String stopDetail,
+               long repliesApplied, LinkCounters linkCounters, int tripFlags, StopReason stopReason, String stopDetail,
                long wallTimeNs, String pinning, byte[] intervalLogBody, long baseTimeMs) {
         this.config = config;
         this.exchanges = exchanges;
@@ -80,6 +84,7 @@ public final class LoopResult {
         this.consumerNames = List.copyOf(consumerNames);
         this.samplesMissed = samplesMissed;
         this.consumerErrors = consumerErrors;
+        this.repliesApplied = repliesApplied;
         this.linkCounters = linkCounters;
         this.tripFlags = tripFlags;
         this.stopReason = stopReason;
@@ -130,6 +135,65 @@ public final class LoopResult {
         ps.flush();
         os.write(intervalLogBody);
         os.flush();
+    }
+
+    /**
+     * The result as plain maps, lists and numbers (for summary.json and reports): counters,
+     * percentiles in us (reply age in exchanges), samples missed per consumer, link counters.
+     * Key order is stable.
+     */
+    public Map<String, Object> summary() {
+        Map<String, Object> m = new LinkedHashMap<>();
+        m.put("stop", stopReason.name());
+        m.put("stop_detail", stopDetail);
+        m.put("real_time", config.realTime);
+        m.put("step_us", config.stepPeriodNs / 1e3);
+        m.put("exchange_every_steps", config.exchangeEverySteps);
+        m.put("exchanges", exchanges);
+        m.put("steps", steps);
+        m.put("overruns", overruns);
+        m.put("skipped_exchanges", skippedExchanges);
+        m.put("wall_time_s", wallTimeNs / 1e9);
+        m.put("lateness_us", percentiles(latenessNs, 1e-3));
+        m.put("compute_us", percentiles(computeNs, 1e-3));
+        m.put("rtt_us", percentiles(roundTripNs, 1e-3));
+        m.put("reply_age_exchanges", percentiles(replyAgeExchanges, 1.0));
+        m.put("clamped_timing_values", clampedTimingValues);
+        Map<String, Object> missed = new LinkedHashMap<>();
+        for (int i = 0; i < consumerNames.size(); i++) {
+            missed.put(consumerNames.get(i), samplesMissed[i]);
+        }
+        m.put("samples_missed", missed);
+        m.put("replies_applied", repliesApplied);
+        Map<String, Object> link = new LinkedHashMap<>();
+        LinkCounters c = linkCounters;
+        link.put("frames_sent", c.framesSent);
+        link.put("replies_accepted", c.repliesAccepted);
+        link.put("crc_errors", c.crcErrors);
+        link.put("malformed_frames", c.malformedFrames);
+        link.put("late_replies", c.lateReplies);
+        link.put("stale_replies", c.staleReplies);
+        link.put("duplicate_replies", c.duplicateReplies);
+        link.put("missing_replies", c.missingReplies);
+        link.put("invalid_references", c.invalidReferences);
+        link.put("send_failures", c.sendFailures);
+        link.put("watchdog_trips", c.watchdogTrips);
+        m.put("link", link);
+        m.put("trip_flags", tripFlags);
+        m.put("pinning", pinning);
+        return m;
+    }
+
+    private static Map<String, Object> percentiles(Histogram h, double scale) {
+        Map<String, Object> p = new LinkedHashMap<>();
+        final boolean empty = h.getTotalCount() == 0;
+        p.put("count", h.getTotalCount());
+        p.put("p50", empty ? 0.0 : h.getValueAtPercentile(50.0) * scale);
+        p.put("p99", empty ? 0.0 : h.getValueAtPercentile(99.0) * scale);
+        p.put("p999", empty ? 0.0 : h.getValueAtPercentile(99.9) * scale);
+        p.put("p9999", empty ? 0.0 : h.getValueAtPercentile(99.99) * scale);
+        p.put("max", empty ? 0.0 : h.getMaxValue() * scale);
+        return p;
     }
 
     @Override

@@ -89,6 +89,23 @@ public final class LoopTimings {
                 lateness.clampedCount() + compute.clampedCount() + rtt.clampedCount() + replyAge.clampedCount());
     }
 
+    /**
+     * A copy of the whole-run histogram (as of the last closed interval) of {@code tag}:
+     * "lateness", "compute", "rtt" (ns) or "reply_age" (exchanges); for a dashboard's histogram
+     * plot. Allocates about 200 KB; call it a few times a second at most.
+     *
+     * @throws IllegalArgumentException for another tag
+     */
+    public Histogram histogram(String tag) {
+        switch (tag) {
+            case "lateness": return copyTotal(lateness);
+            case "compute": return copyTotal(compute);
+            case "rtt": return copyTotal(rtt);
+            case "reply_age": return copyTotal(replyAge);
+            default: throw new IllegalArgumentException("no timing histogram '" + tag + "' (lateness, compute, rtt, reply_age)");
+        }
+    }
+
     synchronized Histogram copyTotal(TimingChannel c) {
         Histogram h = c.total().copy();
         h.setTag(c.tag);

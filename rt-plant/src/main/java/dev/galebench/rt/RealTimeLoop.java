@@ -115,6 +115,16 @@ public final class RealTimeLoop {
         return timings;
     }
 
+    /**
+     * A copy of the link's counters now (any thread; the loop writes them without fences, so a
+     * copy taken while it runs may be a few exchanges old and not all from the same instant).
+     */
+    public LinkCounters linkCountersSnapshot() {
+        final LinkCounters c = new LinkCounters();
+        c.copyFrom(link.counters());
+        return c;
+    }
+
     /** The sample layout this loop publishes. */
     public SampleLayout layout() {
         return layout;
@@ -168,7 +178,7 @@ public final class RealTimeLoop {
         return new LoopResult(config, timings.exchanges.get(), timings.steps.get(), timings.overruns.get(),
                 timings.skippedExchanges.get(), timings.copyTotal(timings.lateness), timings.copyTotal(timings.compute),
                 timings.copyTotal(timings.rtt), timings.copyTotal(timings.replyAge),
-                timings.snapshot().clampedValues(), consumerNames, missed, errors, countersCopy, plant.tripFlags(),
+                timings.snapshot().clampedValues(), consumerNames, missed, errors, supervisor.repliesApplied(), countersCopy, plant.tripFlags(),
                 stopReason, stopDetail, wallTimeNs, pinning, timings.intervalLogBody(), timings.baseTimeMs());
     }
 

@@ -41,6 +41,7 @@ class LinkSupervisionTest {
     void shouldAcceptEveryOnTimeReplyWithAgeZero() throws Exception {
         LoopResult r = run(null, 100);
         assertEquals(100, r.linkCounters.repliesAccepted);
+        assertEquals(100, r.repliesApplied);
         assertEquals(0, r.linkCounters.lateReplies + r.linkCounters.staleReplies + r.linkCounters.duplicateReplies
                 + r.linkCounters.missingReplies + r.linkCounters.invalidReferences + r.linkCounters.watchdogTrips);
         assertEquals(0, r.replyAgeExchanges.getMaxValue());
@@ -51,7 +52,11 @@ class LinkSupervisionTest {
     void shouldDropAndCountDuplicateReply() throws Exception {
         LoopResult r = run(seq -> seq == 10 ? EchoBoardLink.DUPLICATE : EchoBoardLink.NORMAL, 100);
         assertEquals(1, r.linkCounters.duplicateReplies);
-        assertEquals(100, r.linkCounters.repliesAccepted);
+        @SuppressWarnings("unchecked")
+        java.util.Map<String, Object> link = (java.util.Map<String, Object>) r.summary().get("link");
+        assertEquals(1L, link.get("duplicate_replies"));
+        assertEquals(101, r.linkCounters.repliesAccepted, "the link passed both copies");
+        assertEquals(100, r.repliesApplied);
         assertEquals(0, r.linkCounters.staleReplies);
     }
 
@@ -61,7 +66,8 @@ class LinkSupervisionTest {
         LoopResult r = run(seq -> seq == 20 ? EchoBoardLink.DELAY + 3 : EchoBoardLink.NORMAL, 100);
         assertEquals(1, r.linkCounters.staleReplies);
         assertEquals(1, r.linkCounters.missingReplies, "exchange 20 ended without the reply to frame 20");
-        assertEquals(99, r.linkCounters.repliesAccepted);
+        assertEquals(100, r.linkCounters.repliesAccepted);
+        assertEquals(99, r.repliesApplied);
         assertEquals(1.0, at(20, "reply_age"), "exchange 20 runs on the reply to frame 19");
         assertEquals(0.0, at(21, "reply_age"));
     }
@@ -75,6 +81,7 @@ class LinkSupervisionTest {
         assertEquals(2, r.linkCounters.missingReplies);
         assertEquals(0, r.linkCounters.staleReplies);
         assertEquals(99, r.linkCounters.repliesAccepted);
+        assertEquals(99, r.repliesApplied, "the late reply is applied");
         assertEquals(1.0, at(30, "reply_age"));
         assertEquals(1.0, at(31, "reply_age"), "exchange 31 applies the late reply to 30");
         assertEquals(0.0, at(32, "reply_age"));
@@ -87,6 +94,7 @@ class LinkSupervisionTest {
                 : seq == 41 ? EchoBoardLink.DUTY_OUT_OF_RANGE
                 : seq == 42 ? EchoBoardLink.PITCH_OUT_OF_RANGE : EchoBoardLink.NORMAL, 100);
         assertEquals(3, r.linkCounters.invalidReferences);
+        assertEquals(97, r.repliesApplied);
         assertEquals(3, r.linkCounters.missingReplies, "a rejected reply is no reply");
         double dutyAt39 = at(39, "gsc_duty_a");
         for (int k = 40; k <= 42; k++) {
@@ -141,7 +149,7 @@ class LinkSupervisionTest {
     void shouldTripWatchdogWhenBoardNeverAnswers() throws Exception {
         LoopResult r = run(seq -> EchoBoardLink.DROP, 1000);
         assertEquals(1, r.linkCounters.watchdogTrips);
-        assertEquals(0, r.linkCounters.repliesAccepted);
+        assertEquals(0, r.repliesApplied);
         assertEquals(1000, r.linkCounters.missingReplies);
         assertEquals(0.5, at(0, "gsc_duty_a"), "converters start blocked until the board answers");
     }

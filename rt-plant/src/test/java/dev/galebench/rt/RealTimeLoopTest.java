@@ -31,6 +31,7 @@ class RealTimeLoopTest {
         assertEquals(1000, c.values.size());
         assertEquals(1001, link.counters().framesSent, "frame 0 before the first deadline, then one per exchange");
         assertEquals(1000, r.linkCounters.repliesAccepted);
+        assertEquals(1000, r.repliesApplied);
         assertEquals(0, r.linkCounters.missingReplies);
         assertEquals(1000, hookSteps.size());
         for (int i = 0; i < 1000; i++) {

@@ -81,5 +81,9 @@ class TimingLogTest {
         assertEquals(10_000, end.exchanges());
         assertEquals(10_000, end.lateness().count());
         assertEquals(STEP_NS, end.exchangePeriodNs());
+        assertEquals(10_000, loop.timings().histogram("lateness").getTotalCount());
+        assertEquals(10_000, loop.timings().histogram("rtt").getTotalCount());
+        assertEquals(10_000, loop.linkCountersSnapshot().framesSent - 1);
+        org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class, () -> loop.timings().histogram("x"));
     }
 }

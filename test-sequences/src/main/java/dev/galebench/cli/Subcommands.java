@@ -1,5 +1,6 @@
 package dev.galebench.cli;
 
+import java.util.ArrayList;
 import java.util.List;
 
 /** The one place where subcommands are registered; each line is one command of the tool. */
@@ -8,7 +9,10 @@ final class Subcommands {
     }
 
     static List<Object> all() {
-        return List.of(
-        );
+        List<Object> commands = new ArrayList<>();
+        commands.add(new dev.galebench.plant.cli.TurbineCommand());
+        commands.add(new dev.galebench.board.BoardSubcommand());
+        commands.add(new dev.galebench.runner.SequencesCommand());
+        return commands;
     }
 }

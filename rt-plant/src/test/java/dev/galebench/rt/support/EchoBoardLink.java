@@ -10,8 +10,8 @@ import dev.galebench.rt.LinkCounters;
  * controller on the measurement (duty = 0.5 + 0.0005 (500 V - x), clamped) and queues the
  * reply; {@link #poll} hands queued replies out in order. A {@link ReplyScript} can drop,
  * duplicate, delay or corrupt the reply to chosen sequences, so supervision is tested on the
- * same path as a real link. Allocation-free after construction; counts framesSent like a
- * transport does.
+ * same path as a real link. Allocation-free after construction; counts framesSent and
+ * repliesAccepted (every reply handed out) like a transport does.
  */
 public final class EchoBoardLink implements BoardLink {
     /** Script actions. */
@@ -111,6 +111,7 @@ public final class EchoBoardLink implements BoardLink {
                 queued--;
                 queue[queued] = r;
                 releaseAfter[queued] = rel;
+                counters.repliesAccepted++;
                 return POLL_REPLY;
             }
         }

@@ -1,0 +1,17 @@
+package dev.galebench.link;
+
+import dev.galebench.board.BoardController;
+import dev.galebench.rt.BoardLink;
+
+class InProcessBoardLinkTest extends AbstractBoardLinkContractTest {
+    @Override
+    BoardLink open(BoardController controller, LinkOptions options) {
+        controller.setSamplePeriod(50e-6);
+        return BoardLinks.inProcess(controller, options);
+    }
+
+    @Override
+    void closeBoard() {
+        // the board is the controller itself
+    }
+}

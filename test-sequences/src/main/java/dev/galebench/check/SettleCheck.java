@@ -1,0 +1,84 @@
+package dev.galebench.check;
+
+import dev.galebench.report.CheckOutcome;
+
+/**
+ * After {@code afterS} (typically a step), a signal enters {@code target +/- tolerance} no
+ * later than {@code byS} and stays inside until {@code toS}. The settling time is measured as
+ * the common definition (VDE-AR-N 4110 "Einschwingzeit", IEC 61400-21-1 usage, from memory):
+ * from {@code afterS} to the start of the last in-band stretch that lasts to the window end.
+ */
+public final class SettleCheck extends StreamingCheck {
+    private final String signal;
+    private final double target, tolerance, afterS, byS, toS;
+    private int slot;
+    private String unit;
+    private long count;
+    private double enteredS = Double.NaN;
+    private double lastS = Double.NaN, lastValue = Double.NaN;
+
+    public SettleCheck(String name, String signal, double target, double tolerance, double afterS, double byS,
+                       double toS) {
+        super(name, "settle");
+        this.signal = signal;
+        this.target = target;
+        this.tolerance = tolerance;
+        this.afterS = afterS;
+        this.byS = byS;
+        this.toS = toS;
+    }
+
+    @Override
+    public String[] signals() {
+        return new String[] {signal};
+    }
+
+    @Override
+    public void bind(SignalIndex index) {
+        slot = index.of(signal);
+        unit = index.unit(slot);
+    }
+
+    @Override
+    public void onSample(double timeS, double[] values) {
+        if (timeS < afterS || timeS > toS) {
+            return;
+        }
+        final double v = values[slot];
+        count++;
+        final boolean inside = Math.abs(v - target) <= tolerance;
+        if (inside) {
+            if (Double.isNaN(enteredS)) {
+                enteredS = timeS;
+            }
+        } else {
+            enteredS = Double.NaN;
+        }
+        lastS = timeS;
+        lastValue = v;
+    }
+
+    @Override
+    public CheckOutcome finish(RunFacts facts) {
+        final double limit = byS - afterS;
+        String required = Fmt.value(target, unit) + " +/- " + Fmt.value(tolerance, unit) + " within "
+                + Fmt.duration(limit) + " after " + Fmt.time(afterS) + ", held to " + Fmt.time(toS);
+        double lo = target - tolerance, hi = target + tolerance;
+        if (count == 0) {
+            return outcome(false, "no samples", required, "no sample of " + signal + " after " + Fmt.time(afterS),
+                    signal, afterS, toS, lo, hi);
+        }
+        if (Double.isNaN(enteredS)) {
+            return outcome(false, "not settled", required, signal + " was still outside the band at "
+                    + Fmt.time(lastS) + " (" + Fmt.value(lastValue, unit) + ")", signal, afterS, toS, lo, hi);
+        }
+        final double settling = enteredS - afterS;
+        String measured = Fmt.duration(settling);
+        if (enteredS <= byS) {
+            return outcome(true, measured, required, signal + " settled at " + Fmt.time(enteredS)
+                    + " and stayed in the band", signal, afterS, toS, lo, hi);
+        }
+        return outcome(false, measured, required, signal + " settled only at " + Fmt.time(enteredS) + ", "
+                + Fmt.duration(enteredS - byS) + " too late", signal, afterS, toS, lo, hi);
+    }
+}

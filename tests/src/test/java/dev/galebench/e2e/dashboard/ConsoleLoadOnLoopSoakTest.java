@@ -1,0 +1,144 @@
+package dev.galebench.e2e.dashboard;
+
+import dev.galebench.dashboard.Dashboard;
+import dev.galebench.dashboard.DashboardOptions;
+import dev.galebench.dashboard.TimingSource;
+import dev.galebench.rt.LoopConfig;
+import dev.galebench.rt.LoopResult;
+import dev.galebench.rt.RealTimeLoop;
+import dev.galebench.rt.SampleConsumer;
+import dev.galebench.rt.SampleLayout;
+import dev.galebench.rt.support.EchoBoardLink;
+import dev.galebench.rt.support.FirstOrderTestPlant;
+import org.junit.jupiter.api.Assumptions;
+import org.junit.jupiter.api.Tag;
+import org.junit.jupiter.api.Test;
+import org.openqa.selenium.By;
+import org.openqa.selenium.support.ui.WebDriverWait;
+
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.ArrayList;
+import java.util.List;
+import java.util.Locale;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * Measures what two open consoles cost the real-time loop: the same real-time run (50 us step,
+ * in-process echo board) alternately without a console and with a console plus two headless
+ * Chromium windows drawing it, and compares lateness percentiles in the same session. This is a
+ * measurement, not a pass/fail on time: it asserts only outcomes (every exchange done, browsers
+ * received data) and writes the numbers to {@code target/console-load.txt}; the result is
+ * recorded in {@code dashboard/README.md}.
+ *
+ * <p>Run: {@code mvn -B -P soak verify -pl tests -am -Dtest=ConsoleLoadOnLoopSoakTest
+ * -Dsurefire.failIfNoSpecifiedTests=false} (system properties {@code galebench.load.rounds},
+ * default 3, and {@code galebench.load.seconds}, default 20).
+ */
+@Tag("soak")
+class ConsoleLoadOnLoopSoakTest {
+    static {
+        // Disruptor's single-producer assertion takes a monitor on the publishing thread.
+        ClassLoader.getSystemClassLoader().setPackageAssertionStatus("com.lmax.disruptor", false);
+    }
+
+    private static final long STEP_NS = 50_000;
+
+    @Test
+    void shouldMeasureLoopLatenessWithAndWithoutTwoOpenConsoles() throws Exception {
+        Assumptions.assumeTrue(HeadlessChromium.available(), "needs /usr/bin/chromium and /usr/bin/chromedriver");
+        int rounds = Integer.getInteger("galebench.load.rounds", 3);
+        int seconds = Integer.getInteger("galebench.load.seconds", 20);
+        List<double[]> without = new ArrayList<>();
+        List<double[]> with = new ArrayList<>();
+        StringBuilder report = new StringBuilder();
+        report.append(String.format(Locale.ROOT, "# %d rounds of %d s each, step %d us, %s%n", rounds, seconds, STEP_NS / 1000,
+                "columns: p50 p99 p99.9 max lateness (us), overruns"));
+        runLoop(seconds / 4, null); // warm-up: JIT, caches
+        for (int r = 0; r < rounds; r++) {
+            double[] a = runLoop(seconds, null);
+            without.add(a);
+            report.append(line("without", a));
+            double[] b = runWithTwoConsoles(seconds);
+            with.add(b);
+            report.append(line("with 2 consoles", b));
+        }
+        double p999Without = median(without, 2);
+        double p999With = median(with, 2);
+        double p99Without = median(without, 1);
+        double p99With = median(with, 1);
+        report.append(String.format(Locale.ROOT, "median p99 without %.2f us, with %.2f us, ratio %.3f%n",
+                p99Without, p99With, p99With / p99Without));
+        report.append(String.format(Locale.ROOT, "median p99.9 without %.2f us, with %.2f us, ratio %.3f%n",
+                p999Without, p999With, p999With / p999Without));
+        Path out = Path.of("target", "console-load.txt");
+        Files.createDirectories(out.getParent());
+        Files.writeString(out, report);
+        System.out.print(report);
+    }
+
+    private double[] runWithTwoConsoles(int seconds) throws Exception {
+        try (Dashboard d = Dashboard.start(DashboardOptions.loopback(0), null, null);
+             HeadlessChromium one = new HeadlessChromium(1600, 1000);
+             HeadlessChromium two = new HeadlessChromium(1600, 1000)) {
+            one.driver().get(d.url());
+            two.driver().get(d.url());
+            awaitViewers(d, 2);
+            double[] r = runLoop(seconds, d);
+            for (HeadlessChromium c : List.of(one, two)) {
+                // the page drew the stream: the lateness panel has a plot and a p99.9 value
+                new WebDriverWait(c.driver(), Duration.ofSeconds(10)).until(drv ->
+                        !drv.findElements(By.cssSelector("#plot-late .uplot")).isEmpty()
+                                && drv.findElement(By.id("timing-kv")).getText().contains("lateness p99.9"));
+            }
+            assertEquals(0, d.slowViewerSkips(), "both consoles kept up");
+            return r;
+        }
+    }
+
+    /** Runs the loop for {@code seconds}; returns lateness p50, p99, p99.9, max in us, and overruns. */
+    private static double[] runLoop(int seconds, Dashboard d) throws InterruptedException {
+        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+        EchoBoardLink link = new EchoBoardLink();
+        long steps = seconds * 1_000_000_000L / STEP_NS;
+        LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).durationSteps(steps).realTime(true).build();
+        List<SampleConsumer> consumers = d == null ? List.of() : List.of(d.feed());
+        RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, null, consumers, SampleLayout.of(plant));
+        if (d != null) {
+            d.timingSource(TimingSource.of(loop, link));
+        }
+        LoopResult r = loop.run();
+        assertEquals(steps, r.exchanges, "the run completed");
+        assertTrue(link.counters().repliesAccepted > 0);
+        return new double[] {
+            r.latenessNs.getValueAtPercentile(50) / 1000.0,
+            r.latenessNs.getValueAtPercentile(99) / 1000.0,
+            r.latenessNs.getValueAtPercentile(99.9) / 1000.0,
+            r.latenessNs.getMaxValue() / 1000.0,
+            r.overruns};
+    }
+
+    private static String line(String what, double[] a) {
+        return String.format(Locale.ROOT, "%-16s %8.2f %8.2f %8.2f %10.1f %6.0f%n", what, a[0], a[1], a[2], a[3], a[4]);
+    }
+
+    private static double median(List<double[]> runs, int column) {
+        double[] v = new double[runs.size()];
+        for (int i = 0; i < v.length; i++) {
+            v[i] = runs.get(i)[column];
+        }
+        java.util.Arrays.sort(v);
+        return v.length % 2 == 1 ? v[v.length / 2] : (v[v.length / 2 - 1] + v[v.length / 2]) / 2;
+    }
+
+    static void awaitViewers(Dashboard d, int n) throws InterruptedException {
+        long deadline = System.nanoTime() + 20_000_000_000L;
+        while (d.viewerCount() < n) {
+            assertTrue(System.nanoTime() < deadline, "expected " + n + " consoles, have " + d.viewerCount());
+            Thread.sleep(20);
+        }
+    }
+}

@@ -1,0 +1,79 @@
+package dev.galebench.e2e.dashboard;
+
+import org.openqa.selenium.OutputType;
+import org.openqa.selenium.WebDriver;
+import org.openqa.selenium.chrome.ChromeDriver;
+import org.openqa.selenium.chrome.ChromeDriverService;
+import org.openqa.selenium.chrome.ChromeOptions;
+
+import java.io.File;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.time.Duration;
+import java.util.Comparator;
+import java.util.stream.Stream;
+
+/**
+ * A real headless Chromium driven through Debian's chromedriver. The driver path is given
+ * explicitly, so Selenium Manager never runs and nothing is downloaded; each browser gets a
+ * fresh profile directory, deleted on close.
+ */
+final class HeadlessChromium implements AutoCloseable {
+    static final String CHROMIUM = "/usr/bin/chromium";
+    static final String CHROMEDRIVER = "/usr/bin/chromedriver";
+
+    private final Path profile;
+    private final ChromeDriverService service;
+    private final ChromeDriver driver;
+
+    HeadlessChromium(int widthPx, int heightPx) {
+        try {
+            profile = Files.createTempDirectory("galebench-chromium");
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+        service = new ChromeDriverService.Builder()
+                .usingDriverExecutable(new File(CHROMEDRIVER))
+                .usingAnyFreePort()
+                .build();
+        ChromeOptions o = new ChromeOptions();
+        o.setBinary(CHROMIUM);
+        o.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage",
+                "--disable-background-networking", "--disable-component-update", "--disable-sync",
+                "--no-first-run", "--user-data-dir=" + profile, "--window-size=" + widthPx + "," + heightPx);
+        driver = new ChromeDriver(service, o);
+        driver.manage().timeouts().pageLoadTimeout(Duration.ofSeconds(30));
+    }
+
+    /** True if Debian's chromium and chromedriver are installed (CI installs them). */
+    static boolean available() {
+        return new File(CHROMIUM).canExecute() && new File(CHROMEDRIVER).canExecute();
+    }
+
+    WebDriver driver() {
+        return driver;
+    }
+
+    /** Saves a PNG of the current page to {@code file} (directories created). */
+    Path screenshot(Path file) throws IOException {
+        Files.createDirectories(file.getParent());
+        Files.write(file, driver.getScreenshotAs(OutputType.BYTES));
+        return file;
+    }
+
+    @Override
+    public void close() {
+        try {
+            driver.quit();
+        } finally {
+            service.stop();
+            try (Stream<Path> s = Files.walk(profile)) {
+                s.sorted(Comparator.reverseOrder()).forEach(p -> p.toFile().delete());
+            } catch (IOException ignored) {
+                // a leftover temp profile is harmless
+            }
+        }
+    }
+}
