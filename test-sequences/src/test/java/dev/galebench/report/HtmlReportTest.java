@@ -1,7 +1,7 @@
 package dev.galebench.report;
 
-import dev.galebench.report.support.DemoRun;
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.DemoRun;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 

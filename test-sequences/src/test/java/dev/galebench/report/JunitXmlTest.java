@@ -1,6 +1,6 @@
 package dev.galebench.report;
 
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.w3c.dom.Document;

@@ -1,7 +1,7 @@
 package dev.galebench.report;
 
-import dev.galebench.report.support.DemoRun;
-import dev.galebench.report.support.ReportInChildJvm;
+import dev.galebench.testsupport.DemoRun;
+import dev.galebench.testsupport.ReportInChildJvm;
 import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;

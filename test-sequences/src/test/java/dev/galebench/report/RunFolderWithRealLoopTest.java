@@ -7,7 +7,7 @@ import dev.galebench.report.recording.ComtradeRecorder;
 import dev.galebench.report.recording.ComtradeSettings;
 import dev.galebench.report.recording.CsvRecorder;
 import dev.galebench.report.recording.SignalRanges;
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import dev.galebench.rt.LoopConfig;
 import dev.galebench.rt.LoopResult;
 import dev.galebench.rt.RealTimeLoop;

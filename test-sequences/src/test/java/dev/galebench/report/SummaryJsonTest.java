@@ -2,7 +2,7 @@ package dev.galebench.report;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 

@@ -3,7 +3,7 @@ package dev.galebench.report.recording;
 import dev.galebench.plant.SensorView;
 import dev.galebench.report.comtrade.ComtradeConfig;
 import dev.galebench.report.comtrade.ComtradeReader;
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;

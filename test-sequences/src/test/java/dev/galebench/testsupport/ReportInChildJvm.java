@@ -1,4 +1,4 @@
-package dev.galebench.report.support;
+package dev.galebench.testsupport;
 
 import java.nio.file.Files;
 import java.nio.file.Path;
