@@ -356,6 +356,16 @@ public final class HtmlReport {
         env.put("exchange every M steps", in.exchangeEverySteps() + " (one exchange every "
                 + trim(in.stepPeriodNs() * (double) in.exchangeEverySteps() / 1000.0) + " µs)");
         env.putAll(in.environment());
+        Map<String, Object> loop = in.loopSummary();
+        if (loop != null) {
+            for (String k : List.of("stop", "stop_detail", "real_time", "wall_time_s", "skipped_exchanges", "samples_missed",
+                    "clamped_timing_values")) {
+                Object v = loop.get(k);
+                if (v != null && !v.toString().isEmpty()) {
+                    env.put("loop " + k, v.toString());
+                }
+            }
+        }
         StringBuilder rows = new StringBuilder();
         for (Map.Entry<String, String> e : env.entrySet()) {
             rows.append(Template.of("kv-row.html").render(Map.of("key", e.getKey(),

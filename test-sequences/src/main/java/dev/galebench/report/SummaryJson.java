@@ -108,6 +108,11 @@ public final class SummaryJson {
             rec.put("unrecorded_samples", rs.unrecordedSamples());
             rec.put("failure", rs.failure());
         }
+        if (in.loopSummary() == null) {
+            root.putNull("loop");
+        } else {
+            root.set("loop", MAPPER.valueToTree(in.loopSummary()));
+        }
         ObjectNode files = root.putObject("files");
         files.put("report_html", RunReports.REPORT_HTML);
         files.put("junit_xml", RunReports.JUNIT_XML);

@@ -70,9 +70,12 @@ class RunFolderWithRealLoopTest {
         assertEquals(0, summary.get("samples_dropped").asLong());
         assertEquals(steps, summary.get("recording").get("records").asLong());
         assertEquals(0, summary.get("recording").get("gaps").asLong());
+        assertEquals("COMPLETED", summary.get("loop").get("stop").asText());
+        assertEquals(steps, summary.get("loop").get("exchanges").asLong());
         String html = Files.readString(dir.resolve("report.html"));
         assertTrue(html.contains("<h1>first_order_offline</h1>"));
         assertTrue(html.contains("href=\"timing.hlog\""));
+        assertTrue(html.contains("<th>loop stop</th><td class=\"mono\">COMPLETED</td>"), "loop summary in the environment panel");
         assertTrue(html.contains("x_v over") || html.contains("aria-label=\"x_v\""));
     }
 }

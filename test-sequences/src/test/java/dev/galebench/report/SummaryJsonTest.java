@@ -27,7 +27,7 @@ class SummaryJsonTest {
         // the schema of REPORTS.md, key by key and in order
         assertEquals(List.of("format", "format_version", "verdict", "sequence", "aborted_reason", "started_at",
                 "plant_duration_s", "step_period_us", "exchange_every_steps", "exchanges", "checks_passed",
-                "checks_failed", "checks", "timing", "samples_dropped", "link", "recording", "files", "environment"), keys(root));
+                "checks_failed", "checks", "timing", "samples_dropped", "link", "recording", "loop", "files", "environment"), keys(root));
         assertEquals("fail", root.get("verdict").asText());
         assertEquals(1, root.get("format_version").asInt());
         assertEquals(2, root.get("checks").size());
