@@ -70,4 +70,20 @@ class CsvRecorderTest {
         CsvRecorder.appendSeconds(s, 1_000_010_000L);
         assertEquals("600 1.00001", s.toString());
     }
+
+    @Test
+    void shouldLeaveEveryLineUpToTheLastFlushWhenTheRunIsKilled(@TempDir Path dir) throws Exception {
+        CsvRecorder r = new CsvRecorder(dir.resolve("killed.csv"), null, 1, 20_000_000L);
+        r.onStart(NAMES, UNITS, 50_000L, 1);
+        ReportFixtures.feed(r, NAMES, 50_000L, 100, (k, t, v) -> v[0] = k);
+        Thread.sleep(40); // longer than the 20 ms flush interval
+        dev.galebench.rt.Sample s = new dev.galebench.rt.Sample(NAMES.length);
+        s.exchangeIndex = 100;
+        s.plantTimeNs = 101 * 50_000L;
+        r.onSample(s); // finds the interval passed: flushes
+        // no onEnd: the process "died" here
+        List<String> lines = Files.readAllLines(dir.resolve("killed.csv"));
+        assertEquals(102, lines.size());
+        assertEquals("100,0.00505,0.0,0.0,0.0", lines.get(101));
+    }
 }
