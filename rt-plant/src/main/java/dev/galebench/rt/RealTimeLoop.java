@@ -60,6 +60,7 @@ public final class RealTimeLoop {
     private volatile boolean abortRequested;
     private volatile String abortReason = "";
     private volatile boolean started;
+    private volatile boolean readerStop;
 
     // written by the loop thread, read by run() after join()
     private ConsumerRing[] rings;
@@ -132,7 +133,9 @@ public final class RealTimeLoop {
 
     /**
      * Runs the loop to its end: starts the consumer threads, runs the loop on a thread named
-     * "galebench-rt", joins it, lets consumers drain, and returns the result.
+     * "galebench-rt", joins it, lets consumers drain, and returns the result. If the calling
+     * thread is interrupted meanwhile, the loop is aborted ("caller interrupted"), the result is
+     * still returned and the interrupt flag is set again.
      *
      * @throws IllegalStateException if called twice
      */
@@ -162,7 +165,20 @@ public final class RealTimeLoop {
         rt.setPriority(Thread.MAX_PRIORITY);
         rt.start();
         reader.start();
-        rt.join();
+        boolean interrupted = false;
+        while (true) {
+            try {
+                rt.join();
+                break;
+            } catch (InterruptedException e) {
+                // the caller is being stopped: stop the loop too, then report as usual
+                abort("caller interrupted");
+                interrupted = true;
+            }
+        }
+        // a flag the reader checks at least every READER_CHECK_MS, not only the interrupt:
+        // HdrHistogram's phase flip sleeps and swallows interrupts
+        readerStop = true;
         reader.interrupt();
         reader.join();
         timings.takeInterval();
@@ -175,6 +191,9 @@ public final class RealTimeLoop {
         }
         final LinkCounters countersCopy = new LinkCounters();
         countersCopy.copyFrom(link.counters());
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
         return new LoopResult(config, timings.exchanges.get(), timings.steps.get(), timings.overruns.get(),
                 timings.skippedExchanges.get(), timings.copyTotal(timings.lateness), timings.copyTotal(timings.compute),
                 timings.copyTotal(timings.rtt), timings.copyTotal(timings.replyAge),
@@ -182,30 +201,35 @@ public final class RealTimeLoop {
                 stopReason, stopDetail, wallTimeNs, pinning, timings.intervalLogBody(), timings.baseTimeMs());
     }
 
+    /** Longest sleep of the timing reader between checks of its stop flag, ms. */
+    private static final long READER_CHECK_MS = 50;
+
     private void readTimings() {
         final long intervalMs = Math.max(1, config.timingIntervalNs / 1_000_000);
         final long startMs = System.currentTimeMillis();
         long nextLogMs = startMs + intervalMs;
-        try {
-            while (!Thread.currentThread().isInterrupted()) {
-                final long nowMs = System.currentTimeMillis();
-                final boolean warmup = nowMs - startMs < LoopTimings.WARMUP_MS;
-                final long sleepMs = warmup ? Math.min(LoopTimings.WARMUP_SWAP_MS, nextLogMs - nowMs) : nextLogMs - nowMs;
-                if (sleepMs > 0) {
-                    Thread.sleep(sleepMs);
+        long nextFlipMs = startMs + LoopTimings.WARMUP_SWAP_MS;
+        while (!readerStop) {
+            final long nowMs = System.currentTimeMillis();
+            final boolean warmup = nowMs - startMs < LoopTimings.WARMUP_MS;
+            final long dueMs = warmup ? Math.min(nextFlipMs, nextLogMs) : nextLogMs;
+            if (nowMs < dueMs) {
+                try {
+                    Thread.sleep(Math.min(READER_CHECK_MS, dueMs - nowMs));
+                } catch (InterruptedException e) {
+                    // run() sets readerStop first; the loop condition decides
                 }
-                final long afterMs = System.currentTimeMillis();
-                final boolean log = afterMs >= nextLogMs;
-                timings.takeInterval(log);
-                if (log) {
-                    nextLogMs += intervalMs;
-                    if (nextLogMs <= afterMs) {
-                        nextLogMs = afterMs + intervalMs;
-                    }
+                continue;
+            }
+            final boolean log = nowMs >= nextLogMs;
+            timings.takeInterval(log);
+            nextFlipMs = nowMs + LoopTimings.WARMUP_SWAP_MS;
+            if (log) {
+                nextLogMs += intervalMs;
+                if (nextLogMs <= nowMs) {
+                    nextLogMs = nowMs + intervalMs;
                 }
             }
-        } catch (InterruptedException e) {
-            // end of run: run() takes the last interval itself
         }
     }
 

@@ -60,6 +60,7 @@ public final class PreflightReport {
         l.put("late_replies", loop.linkCounters.lateReplies);
         l.put("watchdog_trips", loop.linkCounters.watchdogTrips);
         l.put("stop", loop.stopReason.name());
+        l.put("trip_flags", loop.tripFlags);
         root.put("board", board);
         root.put("pinning", loop.pinning);
         root.put("sustainable", verdict.sustainable());
