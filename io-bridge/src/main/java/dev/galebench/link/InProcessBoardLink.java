@@ -23,7 +23,8 @@ import java.nio.ByteBuffer;
  * FULL with the hold controller (JMH, WireCodecBenchmark, on a loaded 2-core VM). Zero allocation.
  *
  * <p>The controller's sample period is the caller's business: call
- * {@link BoardController#setSamplePeriod} before the first send.
+ * {@link BoardController#setSamplePeriod} before the first send. Replies wait in a queue of
+ * 8; a caller that sends without polling gets a send failure (counted) once it is full.
  */
 final class InProcessBoardLink extends FrameLink {
     private static final int QUEUE_SLOTS = 8;
