@@ -409,16 +409,7 @@ public final class TurbinePlant implements PlantModel {
         final double vdc = s[V_DC];
 
         // aerodynamics
-        final double v = windMPerS;
-        double tAero = 0.0;
-        if (v > 0.1) {
-            final double lambda = wr * radiusM / v;
-            final double le = lambda > 1.0 ? lambda : 1.0;
-            tAero = aeroTorqueFactor * v * v * cps.cp(le, beta * RAD_TO_DEG) / le;
-            if (wr <= 0.0 && tAero < 0.0) {
-                tAero = 0.0;
-            }
-        }
+        final double tAero = aeroTorque(cps, aeroTorqueFactor, radiusM, wr, beta, windMPerS);
 
         // generator
         final double we = polePairs * gear * wg;
@@ -492,6 +483,29 @@ public final class TurbinePlant implements PlantModel {
         dx[GRID_ANGLE] = TWO_PI * frequencyHz;
     }
 
+    /**
+     * Aerodynamic torque on the rotor, N m: {@code 1/2 rho pi R^3 v^2 Cp(lambda, beta) / lambda}
+     * for lambda >= 1. Below lambda = 1 the fit is meaningless; the guard keeps the torque
+     * continuous: a positive Cp(1, beta) gives the constant starting torque of lambda = 1, a
+     * negative one (feathered blades: aerodynamic braking) a drag proportional to lambda, zero at
+     * rest and restoring for reverse rotation. Zero below 0.1 m/s of wind.
+     *
+     * @param factor 1/2 rho pi R^3
+     */
+    static double aeroTorque(CpSurface cps, double factor, double radiusM, double rotorSpeedRadPerS, double pitchRad,
+                             double windMPerS) {
+        if (!(windMPerS > 0.1)) {
+            return 0.0;
+        }
+        final double lambda = rotorSpeedRadPerS * radiusM / windMPerS;
+        final double q = factor * windMPerS * windMPerS;
+        if (lambda >= 1.0) {
+            return q * cps.cp(lambda, pitchRad * RAD_TO_DEG) / lambda;
+        }
+        final double c = cps.cp(1.0, pitchRad * RAD_TO_DEG);
+        return c >= 0.0 ? q * c : q * c * (lambda > -1.0 ? lambda : -1.0);
+    }
+
     /** Algebraic outputs at the present state: signal array and raw measurement channels. */
     private void computeOutputs() {
         final double[] s = x;
@@ -502,16 +516,11 @@ public final class TurbinePlant implements PlantModel {
         final double vdc = s[V_DC];
         final double v = windMPerS;
 
-        double tAero = 0.0;
+        final double tAero = aeroTorque(cps, aeroTorqueFactor, radiusM, wr, beta, v);
         double lambda = 0.0;
         double cpNow = 0.0;
         if (v > 0.1) {
             lambda = wr * radiusM / v;
-            final double le = lambda > 1.0 ? lambda : 1.0;
-            tAero = aeroTorqueFactor * v * v * cps.cp(le, beta * RAD_TO_DEG) / le;
-            if (wr <= 0.0 && tAero < 0.0) {
-                tAero = 0.0;
-            }
             cpNow = tAero * wr / (sweptAreaHalfRho * v * v * v);
         }
         final double pAero = tAero * wr;
