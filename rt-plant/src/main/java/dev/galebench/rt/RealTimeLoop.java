@@ -61,6 +61,7 @@ public final class RealTimeLoop {
     private volatile String abortReason = "";
     private volatile boolean started;
     private volatile boolean readerStop;
+    private long logBaseTimeMs = -1;
 
     // written by the loop thread, read by run() after join()
     private ConsumerRing[] rings;
@@ -94,6 +95,19 @@ public final class RealTimeLoop {
         this.timings = new LoopTimings(config.exchangePeriodNs());
         this.supervisor = new LinkSupervisor(link.counters(), timings.rtt, config.pitchRefMinRad,
                 config.pitchRefMaxRad, config.watchdogExchanges());
+    }
+
+    /**
+     * Sets the base time of this run's interval log (epoch ms; default: the start of the run).
+     * Runs that share a base time can have their logs concatenated ({@link LoopResult#merge}).
+     * Call before {@link #run()}.
+     */
+    public RealTimeLoop timingLogBaseTimeMs(long epochMs) {
+        if (started) {
+            throw new IllegalStateException("set the log base time before run()");
+        }
+        logBaseTimeMs = epochMs;
+        return this;
     }
 
     /** Asks the loop to stop at its next exchange (any thread). */
@@ -158,7 +172,7 @@ public final class RealTimeLoop {
         for (ConsumerRing r : rings) {
             r.start();
         }
-        timings.start(System.currentTimeMillis());
+        timings.start(logBaseTimeMs >= 0 ? logBaseTimeMs : System.currentTimeMillis());
         final Thread reader = new Thread(this::readTimings, "galebench-rt-timing");
         reader.setDaemon(true);
         final Thread rt = new Thread(this::loopThread, "galebench-rt");
