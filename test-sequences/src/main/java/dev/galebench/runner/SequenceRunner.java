@@ -95,9 +95,8 @@ public final class SequenceRunner {
         /** Replay: answer from this recorded reply file instead of a board. */
         public Path replayReplies;
         /**
-         * Real-time runs: plant seconds run offline first on a throwaway plant with the in-process
-         * controller, so the JIT has compiled the plant, codec and loop before the first deadline
-         * (a cold start makes the first exchanges milliseconds late). 0 = none.
+         * Real-time runs: warm up first (see {@code warmUp}): one offline pass of the sequence,
+         * then, with a board, this many seconds in real time against the board. 0 = no warm-up.
          */
         public double warmupS = 2.0;
         /** More consumers (e.g. a dashboard feed). */
@@ -198,7 +197,7 @@ public final class SequenceRunner {
             board = BoardLinks.open(o.board, LinkOptions.defaults().faults(faults));
         }
         if (!o.offline && o.replayReplies == null && o.warmupS > 0) {
-            warmUp(s, o.warmupS, virtual ? null : board);
+            warmUp(seq, s, o, virtual ? null : board);
         }
         final RecordingLink link = o.replayReplies != null ? null
                 : new RecordingLink(board, dir.resolve(ReplyLog.FILE_NAME), s.stepPeriodNs, s.exchangeEvery);
@@ -271,21 +270,40 @@ public final class SequenceRunner {
     }
 
     /**
-     * JIT warm-up before a real-time run: the loop runs offline for {@code seconds} of plant time
-     * on a throwaway plant with the in-process controller; with a board, then for the same time
-     * in real time against the board in steady state (the board restarts its controller when the
-     * next run's sequence numbers start again at 0). Late replies of the warm-up are drained and
-     * the link's counters reset, so the run's verdicts count only the run.
+     * JIT warm-up before a real-time run (a cold JVM makes the first exchanges milliseconds
+     * late, and a plant whose board replies late holds its last duties while the grid turns,
+     * which drives it into a trip within milliseconds). First the whole sequence runs once
+     * offline with the in-process controller into a throwaway folder, so every class and branch
+     * of this run (plant, schedule, checks, recorders, reply recorder, report writers) is
+     * compiled; then, with a board, {@code o.warmupS} seconds run in real time against the board
+     * in steady state (the board restarts its controller when the next run's sequence numbers
+     * start again at 0). Late replies of the warm-up are drained and the link's counters reset,
+     * so the verdicts count only the run.
      */
-    static void warmUp(Setup s, double seconds, BoardLink board) throws InterruptedException {
-        offlineWarmUp(s, seconds);
+    private void warmUp(Sequence seq, Setup s, Options o, BoardLink board) throws IOException, InterruptedException {
+        Path tmp = Files.createTempDirectory("galebench-warmup-");
+        try {
+            Options w = new Options();
+            w.offline = true;
+            w.folder = tmp.resolve("run");
+            w.progress = false;
+            w.stepUs = s.stepPeriodNs / 1000.0;
+            w.exchangeEvery = s.exchangeEvery;
+            w.err = o.err;
+            run(seq, w);
+        } finally {
+            try (var walk = Files.walk(tmp)) {
+                walk.sorted(java.util.Comparator.reverseOrder()).forEach(f -> f.toFile().delete());
+            }
+        }
         if (board == null) {
+            collectBeforeRun();
             return;
         }
         TurbinePlant plant = new TurbinePlant(s.turbine, s.stepPeriodNs);
         plant.initialise(s.op);
         LoopConfig cfg = LoopConfig.builder().stepPeriodNs(s.stepPeriodNs).exchangeEverySteps(s.exchangeEvery)
-                .durationSteps(Math.max(1, Math.round(seconds * 1e9 / s.stepPeriodNs))).realTime(true)
+                .durationSteps(Math.max(1, Math.round(o.warmupS * 1e9 / s.stepPeriodNs))).realTime(true)
                 .watchdogNs(1_000_000_000L)
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
                 .build();
@@ -300,20 +318,12 @@ public final class SequenceRunner {
             }
         }
         board.counters().reset();
+        collectBeforeRun();
     }
 
-    private static void offlineWarmUp(Setup s, double seconds) throws InterruptedException {
-        TurbinePlant plant = new TurbinePlant(s.turbine, s.stepPeriodNs);
-        plant.initialise(s.op);
-        ReferenceController controller = new ReferenceController(s.turbine, s.controller);
-        controller.setSamplePeriod(s.stepPeriodNs * s.exchangeEvery * 1e-9);
-        BoardLink link = BoardLinks.inProcess(controller);
-        LoopConfig cfg = LoopConfig.builder().stepPeriodNs(s.stepPeriodNs).exchangeEverySteps(s.exchangeEvery)
-                .durationSteps(Math.max(1, Math.round(seconds * 1e9 / s.stepPeriodNs))).realTime(false)
-                .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
-                .build();
-        new RealTimeLoop(cfg, plant, link, null, List.of(), SampleLayout.of(plant)).run();
-        link.close();
+    /** Empties the heap once before the clock starts, so the warm-up's garbage is not collected during the run. */
+    private static void collectBeforeRun() {
+        System.gc();
     }
 
     private static final dev.galebench.sequence.LinkFaultControl NO_FAULTS = new dev.galebench.sequence.LinkFaultControl() {
