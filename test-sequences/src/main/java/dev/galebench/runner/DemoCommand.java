@@ -46,6 +46,9 @@ public final class DemoCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "No progress bar.")
     boolean quiet;
 
+    @picocli.CommandLine.Mixin
+    dev.galebench.dashboard.DashboardOption dashboard;
+
     @Override
     public Integer call() throws Exception {
         PrintWriter w = spec.commandLine().getOut();
@@ -64,7 +67,12 @@ public final class DemoCommand implements Callable<Integer> {
             o.board = uri;
             o.outBase = out;
             o.progress = !quiet;
-            SequenceRunner.Result r = new SequenceRunner().run(seq, o);
+            SequenceRunner.Result r;
+            try (dev.galebench.dashboard.Dashboard d = dashboard.startIfAsked(
+                    dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { }, w)) {
+                o.dashboard = d;
+                r = new SequenceRunner().run(seq, o);
+            }
             RunCommand.print(w, r);
             w.println("demo: report " + r.folder().resolve("report.html").toAbsolutePath());
             w.flush();

@@ -52,6 +52,9 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--quiet", description = "No progress bar.")
     boolean quiet;
 
+    @picocli.CommandLine.Mixin
+    dev.galebench.dashboard.DashboardOption dashboard;
+
     @Override
     public Integer call() throws Exception {
         final PrintStream err = System.err;
@@ -74,7 +77,13 @@ public final class RunCommand implements Callable<Integer> {
         o.csv = csv;
         o.progress = !quiet;
         o.err = err;
-        SequenceRunner.Result r = new SequenceRunner().run(seq, o);
+        SequenceRunner.Result r;
+        try (dev.galebench.dashboard.Dashboard d = dashboard.startIfAsked(
+                dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { },
+                spec.commandLine().getOut())) {
+            o.dashboard = d;
+            r = new SequenceRunner().run(seq, o);
+        }
         print(spec.commandLine().getOut(), r);
         return r.passed() ? GalebenchCommand.EXIT_OK : GalebenchCommand.EXIT_FAILED;
     }

@@ -99,7 +99,9 @@ public final class SequenceRunner {
          * then, with a board, this many seconds in real time against the board. 0 = no warm-up.
          */
         public double warmupS = 2.0;
-        /** More consumers (e.g. a dashboard feed). */
+        /** Live web console to feed (started by the command's --dashboard option), or null. */
+        public dev.galebench.dashboard.Dashboard dashboard;
+        /** More consumers. */
         public List<SampleConsumer> extraConsumers = List.of();
     }
 
@@ -213,6 +215,9 @@ public final class SequenceRunner {
             consumers.add(csv);
         }
         consumers.addAll(o.extraConsumers);
+        if (o.dashboard != null) {
+            consumers.add(o.dashboard.feed());
+        }
 
         final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(s.stepPeriodNs).exchangeEverySteps(s.exchangeEvery)
                 .durationSteps(schedule.totalSteps()).realTime(!o.offline && o.replayReplies == null)
@@ -222,6 +227,11 @@ public final class SequenceRunner {
         final TripAbortHook hook = new TripAbortHook(schedule, seq.allowedTripMask());
         final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link != null ? link : board, hook, consumers, layout);
         hook.attach(loop);
+        if (o.dashboard != null) {
+            o.dashboard.timingSource(dev.galebench.dashboard.TimingSource.of(loop, link != null ? link : board));
+            o.dashboard.bench(dev.galebench.dashboard.BenchControl.watchOnly(seq.name(),
+                    () -> loop.abort("aborted from the live console")));
+        }
         final LoopResult r;
         try (Progress bar = o.progress ? new Progress(o.err, loop, seq.name(), schedule.totalSteps(),
                 s.stepPeriodNs, o.terminal) : null) {

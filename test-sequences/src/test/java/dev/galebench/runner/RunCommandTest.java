@@ -44,6 +44,14 @@ class RunCommandTest {
     }
 
     @Test
+    void shouldFeedTheLiveConsoleWhenAsked(@TempDir Path dir) throws Exception {
+        String out = galebench(0, "run", "link-silence-watchdog", "--offline", "--quiet", "--dashboard=0", "--out",
+                dir.toString())[0];
+        assertTrue(out.startsWith("live console: http://127.0.0.1:"), out);
+        assertTrue(out.contains("PASSED: 3 of 3 checks passed"), out);
+    }
+
+    @Test
     void shouldExitTwoWithFileLineColumnForABadFile(@TempDir Path dir) throws Exception {
         Path seq = dir.resolve("bad.yaml");
         Files.writeString(seq, SequenceLibrary.text("wind-step-partial-load").replace("to_m_s: 9.0", "to_m_s: fast"));
