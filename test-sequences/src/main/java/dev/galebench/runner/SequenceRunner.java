@@ -317,7 +317,22 @@ public final class SequenceRunner {
                 .watchdogNs(1_000_000_000L)
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
                 .build();
-        new RealTimeLoop(cfg, plant, board, null, List.of(), SampleLayout.of(plant)).run();
+        LoopResult w = new RealTimeLoop(cfg, plant, board, null, List.of(), SampleLayout.of(plant)).run();
+        if (o.progress) {
+            Percentiles rtt = Percentiles.of(w.roundTripNs), late = Percentiles.of(w.latenessNs);
+            o.err.printf(java.util.Locale.ROOT, "warm-up against the board: %d exchanges, round trip p50 %.1f us, "
+                    + "p99 %.1f us; lateness p99 %.1f us; %d late and %d missing replies, %d overruns%n", w.exchanges,
+                    rtt.p50() / 1e3, rtt.p99() / 1e3, late.p99() / 1e3, w.linkCounters.lateReplies,
+                    w.linkCounters.missingReplies, w.overruns);
+        }
+        if (w.overruns > w.exchanges / 100 || w.linkCounters.missingReplies > w.exchanges / 100) {
+            o.err.printf(java.util.Locale.ROOT, "galebench: warning: during the warm-up %.1f %% of the exchanges overran "
+                    + "and %.1f %% of the replies were missing: this machine or the board cannot keep the %s us "
+                    + "schedule now (other load? see galebench preflight); the run's verdicts will say so%n",
+                    100.0 * w.overruns / Math.max(1, w.exchanges),
+                    100.0 * w.linkCounters.missingReplies / Math.max(1, w.exchanges),
+                    Double.toString(s.stepPeriodNs * s.exchangeEvery / 1000.0));
+        }
         dev.galebench.plant.BoardCommand sink = new dev.galebench.plant.BoardCommand();
         long quietSince = System.nanoTime();
         while (System.nanoTime() - quietSince < 50_000_000L) {
