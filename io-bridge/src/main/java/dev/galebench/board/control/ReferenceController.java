@@ -48,7 +48,7 @@ public final class ReferenceController implements BoardController {
     private final double vBase, iBase, omegaNom, vdcRef, vdcNom;
     private final double rTot, lTot, rBeyond, lBeyond;
     private final double rs, ld, lq, psi, polePairs, statorBase, mscLimitA;
-    private final double kOptGen, ratedGenSpeed, ratedPower, maxTorque, transitionSpeed;
+    private final double kOptGen, ratedGenSpeed, ratedPower, maxTorque, transitionSpeed, minGenSpeed;
     private final double pitchKp, pitchKi, pitchThetaK, pitchMin, pitchMax, pitchRate;
     private final double kFactor, kVoltage, limitNormal, limitFrt, recoveryRate, modLimit;
     private final double chopperOnV, chopperOffV;
@@ -142,6 +142,7 @@ public final class ReferenceController implements BoardController {
         ratedPower = p.ratedPowerW;
         maxTorque = t.maxTorqueNm;
         transitionSpeed = s.torqueTransitionSpeedPu * t.ratedGeneratorSpeedRadPerS;
+        minGenSpeed = p.minRotorSpeedRadPerS * p.gearRatio;
         pitchKp = t.pitchKp;
         pitchKi = t.pitchKi;
         pitchThetaK = t.pitchScheduleThetaKRad;
@@ -441,7 +442,11 @@ public final class ReferenceController implements BoardController {
         final boolean running = state == STATE_RUNNING;
         final boolean tripped = state == STATE_TRIPPED;
 
-        double torque = running ? torqueReference(wg) : 0.0;
+        // stopping (cut-out, low wind): the blades feather at their rate limit while the machine
+        // side keeps the torque law, so the rotor slows down instead of running away; the
+        // machine side blocks once the speed is below the minimum operating speed
+        final boolean mscOn = !tripped && (running || wg > minGenSpeed);
+        double torque = mscOn ? torqueReference(wg) : 0.0;
         mscTorqueRefNm = torque;
         double isdRef = 0.0;
         double isqRef;
@@ -479,7 +484,6 @@ public final class ReferenceController implements BoardController {
             mscPiD.resetTo(mIntD);
             mscPiQ.resetTo(mIntQ);
         }
-        final boolean mscOn = running;
         if (!mscOn) {
             // blocked: keep integrators at the no-current state so a restart is bumpless
             mscPiD.resetTo(rs * isd);
