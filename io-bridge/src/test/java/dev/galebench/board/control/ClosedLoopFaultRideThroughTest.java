@@ -37,7 +37,7 @@ class ClosedLoopFaultRideThroughTest {
         final ClosedLoop cl = new ClosedLoop(TURBINE, ControllerFile.defaults(), 10.0);
         final int every = 2;
         final long n = Math.round(totalS / cl.stepS());
-        final double[][] rec = new double[NAMES.length + 1][(int) (n / every) + 1];
+        final double[][] rec = new double[NAMES.length + 1][(int) ((n + every - 1) / every)];
         final int[] idx = new int[NAMES.length];
         for (int i = 0; i < NAMES.length; i++) {
             idx[i] = cl.signalIndex(NAMES[i]);
@@ -116,6 +116,7 @@ class ClosedLoopFaultRideThroughTest {
         final Run run = dip(0.5, 0.5, 0.5, DIP_LENGTH_S, 1.0);
         assertNoTrip(run);
         assertReactiveCurrentFollowsKFactor(run, "dip 0.5 pu");
+        System.out.printf("dip 0.5 pu: DC %.1f..%.1f V%n", ClosedLoop.min(run.rec, 1, 0, 1), ClosedLoop.max(run.rec, 1, 0, 1));
         assertTrue(ClosedLoop.max(run.rec, 1, 0, 1) < TURBINE.dcOvervoltageTripV, "DC below the hardware trip");
         assertTrue(run.frtFirstS >= DIP_START_S && run.frtFirstS < DIP_START_S + 0.005, "FRT flag within 5 ms");
         final double p0 = ClosedLoop.mean(run.rec, 5, 0.1, 0.19);
