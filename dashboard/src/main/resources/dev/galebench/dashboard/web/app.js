@@ -55,6 +55,13 @@
     }).observe(grid);
   }
 
+  // y-axis width follows its longest tick label, so large values (lateness in a bad run) are not cut
+  function axisWidth(u, values) {
+    var longest = 0;
+    (values || []).forEach(function (v) { longest = Math.max(longest, String(v).length); });
+    return Math.max(40, 14 + 7 * longest);
+  }
+
   function size(p) {
     var w = Math.max(200, p.card.clientWidth - 24);
     return { width: w, height: 190 };
@@ -98,7 +105,7 @@
         scales: { x: { time: false } },
         axes: [
           { stroke: '#6b7785', grid: { stroke: '#eef1f4' }, ticks: { stroke: '#dde3ea' }, label: 'plant time, s', labelSize: 18, labelFont: '11px system-ui' },
-          { stroke: '#6b7785', grid: { stroke: '#eef1f4' }, ticks: { stroke: '#dde3ea' }, size: 54 }
+          { stroke: '#6b7785', grid: { stroke: '#eef1f4' }, ticks: { stroke: '#dde3ea' }, size: axisWidth }
         ],
         series: series,
         bands: bands
@@ -161,7 +168,7 @@
         bar.title = (b.upToUs == null ? 'above' : '\u2264 ' + b.upToUs + ' \u00b5s') + ': ' + b.count;
         hist.appendChild(bar);
         var lab = document.createElement('span');
-        lab.textContent = b.upToUs == null ? '>' : (b.upToUs >= 1000 ? (b.upToUs / 1000) + 'ms' : b.upToUs);
+        lab.textContent = b.upToUs == null ? '>' : (b.upToUs >= 1000 ? (b.upToUs / 1000) + 'k' : b.upToUs);
         axis.appendChild(lab);
       });
       kv.push(['lateness p50', us(m.lateness.p50Us)], ['lateness p99', us(m.lateness.p99Us)],
@@ -208,6 +215,8 @@
       var text = document.createElement('div');
       text.innerHTML = '<div class="seq-name"></div><div class="seq-desc"></div>';
       text.querySelector('.seq-name').textContent = s.name;
+      li.title = s.description || '';
+      li.dataset.sequence = s.name;
       text.querySelector('.seq-desc').textContent = (s.description || '') +
         (s.durationS != null ? (s.description ? ' \u00b7 ' : '') + fmt(s.durationS, 1) + ' s' : '');
       var b = document.createElement('button');
@@ -224,12 +233,15 @@
     pill.textContent = m.state; pill.dataset.state = m.state;
     $('run-sequence').textContent = m.sequence || '';
     state.running = m.state === 'running';
+    document.querySelectorAll('#seq-list li[data-sequence]').forEach(function (li) {
+      li.classList.toggle('current', state.running && li.dataset.sequence === m.sequence);
+    });
     var a = $('report-link');
     if (m.report) {
       a.href = m.report + (state.token ? '?token=' + encodeURIComponent(state.token) : '');
       a.hidden = false;
     } else { a.hidden = true; }
-    if (m.state === 'running') { $('verdicts').innerHTML = ''; tally(); }
+    if (m.state === 'running') { $('verdicts').innerHTML = '<li class="muted">no checks yet</li>'; tally(); }
     applyPermissions();
   }
 
@@ -355,7 +367,7 @@
         if (state.epoch && state.epoch !== m.epoch) { state.stream = null; }
         state.epoch = m.epoch; state.role = m.role; state.tokenRequired = m.tokenRequired;
         // the server re-sends run state, verdicts and log on every join: start those lists afresh
-        $('verdicts').innerHTML = ''; $('log').innerHTML = ''; tally();
+        $('verdicts').innerHTML = '<li class="muted">no checks yet</li>'; $('log').innerHTML = ''; tally();
         var r = $('role'); r.hidden = false; r.textContent = m.role === 'control' ? 'control' : 'read-only';
         applyPermissions();
         break;

@@ -1,0 +1,323 @@
+package dev.galebench.cli.serve;
+
+import dev.galebench.board.BoardControllers;
+import dev.galebench.dashboard.BenchControl;
+import dev.galebench.dashboard.ControlResult;
+import dev.galebench.dashboard.Dashboard;
+import dev.galebench.dashboard.SequenceInfo;
+import dev.galebench.dashboard.TimingSource;
+import dev.galebench.link.BoardLinks;
+import dev.galebench.link.LinkFaults;
+import dev.galebench.link.LinkOptions;
+import dev.galebench.plant.SteadyState;
+import dev.galebench.plant.TurbineParameters;
+import dev.galebench.plant.TurbinePlant;
+import dev.galebench.rt.BoardLink;
+import dev.galebench.rt.LoopConfig;
+import dev.galebench.rt.LoopResult;
+import dev.galebench.rt.RealTimeLoop;
+import dev.galebench.rt.SampleLayout;
+import dev.galebench.sequence.Sequence;
+import dev.galebench.sequence.SequenceLibrary;
+
+import java.io.IOException;
+import java.io.UncheckedIOException;
+import java.io.Writer;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.nio.file.StandardOpenOption;
+import java.time.Instant;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.List;
+import java.util.Locale;
+
+/**
+ * The bench behind {@code galebench serve}: owns the plant, the board link and the real-time
+ * loop, and answers the console's {@link BenchControl} calls.
+ *
+ * <p>Between sequences the plant runs freely in real time (a loop "until aborted") from the
+ * steady state at the current wind; bench controls go through a {@link BenchMailbox} into that
+ * loop and take effect at the next plant step. Each accepted control is appended to
+ * {@code controls.log} in the session folder with the wall time and the plant time at which
+ * it took effect (the control thread waits up to {@value #APPLY_WAIT_MS} ms for the real-time
+ * thread to apply it, so the log says when, not only that).
+ *
+ * <p>Threads: the bench thread ("galebench-serve") builds and runs one loop after another; the
+ * console's control thread calls the {@link BenchControl} methods. Neither is the real-time
+ * thread, which the loop starts itself.
+ */
+public final class ServeBench implements BenchControl, AutoCloseable {
+    static final long APPLY_WAIT_MS = 250;
+
+    /**
+     * What the bench runs.
+     *
+     * @param turbine        validated turbine parameters
+     * @param stepPeriodNs   plant step, ns
+     * @param board          {@code virtual} (in-process virtual board) or a link URI ({@code udp://HOST:PORT}, {@code serial:DEV[@BAUD]})
+     * @param controller     control law of the virtual board (one of the virtual board's names)
+     * @param windMPerS      wind of the first free run, m/s
+     * @param sessionDir     folder for {@code controls.log} and sequence runs
+     */
+    public record Settings(TurbineParameters turbine, long stepPeriodNs, String board, String controller,
+                           double windMPerS, Path sessionDir) {
+    }
+
+    private final Settings settings;
+    private final List<SequenceInfo> sequences;
+    private final Writer controlLog;
+    private final Thread benchThread;
+    private volatile Dashboard dashboard;
+    private volatile boolean closing;
+    private volatile RealTimeLoop freeRun;
+    private volatile BenchMailbox mailbox;
+    private volatile double windMPerS;
+    private volatile String lastProblem = "";
+
+    public ServeBench(Settings settings) {
+        this.settings = settings;
+        this.windMPerS = settings.windMPerS();
+        List<SequenceInfo> list = new ArrayList<>();
+        for (String name : SequenceLibrary.names()) {
+            Sequence s = SequenceLibrary.load(name);
+            list.add(new SequenceInfo(s.name(), firstSentence(s.purpose()), s.durationS()));
+        }
+        this.sequences = List.copyOf(list);
+        try {
+            Files.createDirectories(settings.sessionDir());
+            this.controlLog = Files.newBufferedWriter(settings.sessionDir().resolve("controls.log"), StandardCharsets.UTF_8,
+                    StandardOpenOption.CREATE, StandardOpenOption.APPEND);
+        } catch (IOException e) {
+            throw new UncheckedIOException("cannot write the session folder " + settings.sessionDir(), e);
+        }
+        this.benchThread = new Thread(this::benchLoop, "galebench-serve");
+        this.benchThread.setDaemon(true);
+    }
+
+    /** Starts the bench thread, streaming every run to {@code console}. */
+    public void start(Dashboard console) {
+        this.dashboard = console;
+        logLine("session started: board " + describeBoard() + ", step " + settings.stepPeriodNs() / 1000.0 + " us");
+        benchThread.start();
+    }
+
+    /** The default control law of the in-process virtual board: {@code reference} when built in, else the first listed. */
+    public static String defaultController() {
+        List<String> names = Arrays.asList(BoardControllers.names().split("[,\\s]+"));
+        return names.contains("reference") ? "reference" : names.get(0);
+    }
+
+    private String describeBoard() {
+        return "virtual".equals(settings.board()) ? "virtual board (" + settings.controller() + ", in-process)" : settings.board();
+    }
+
+    private void benchLoop() {
+        while (!closing) {
+            try {
+                runFree();
+            } catch (InterruptedException e) {
+                Thread.currentThread().interrupt();
+                return;
+            } catch (RuntimeException e) {
+                lastProblem = e.getMessage();
+                logLine("free run could not start: " + e.getMessage() + " (retrying in 2 s)");
+                sleepQuietly(2000);
+            }
+        }
+    }
+
+    private void runFree() throws InterruptedException {
+        final TurbineParameters p = settings.turbine();
+        final LinkFaults faults = new LinkFaults();
+        final BoardLink link = openLink(faults);
+        try {
+            final TurbinePlant plant = new TurbinePlant(p, settings.stepPeriodNs());
+            final double wind = windMPerS;
+            plant.initialise(SteadyState.solve(p, wind, 1.0, 0.0));
+            final BenchMailbox box = new BenchMailbox(new LinkFaultMenu(faults));
+            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(settings.stepPeriodNs()).realTime(true).build();
+            final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, box, List.of(dashboard.feed()), SampleLayout.of(plant));
+            dashboard.timingSource(TimingSource.of(loop, link));
+            mailbox = box;
+            freeRun = loop;
+            logLine(String.format(Locale.ROOT, "free run started from the steady state at %.2f m/s", wind));
+            LoopResult r;
+            try {
+                if (closing) {
+                    return;
+                }
+                r = loop.run();
+            } finally {
+                freeRun = null;
+                mailbox = null;
+            }
+            logLine("free run ended: " + r.stopReason + (r.stopDetail.isEmpty() ? "" : " (" + r.stopDetail + ")")
+                    + String.format(Locale.ROOT, ", %d exchanges, %d overruns", r.exchanges, r.overruns));
+            if (r.stopReason != LoopResult.StopReason.ABORTED && !closing) {
+                sleepQuietly(1000); // a run that ended by itself (trip, error): restart settled, not in a tight loop
+            }
+        } finally {
+            link.close();
+        }
+    }
+
+    private BoardLink openLink(LinkFaults faults) {
+        LinkOptions o = LinkOptions.defaults().faults(faults);
+        if ("virtual".equals(settings.board())) {
+            return BoardLinks.inProcess(BoardControllers.create(settings.controller()), o);
+        }
+        return BoardLinks.open(settings.board(), o);
+    }
+
+    @Override
+    public List<SequenceInfo> sequences() {
+        return sequences;
+    }
+
+    @Override
+    public boolean interactive() {
+        return true;
+    }
+
+    @Override
+    public List<String> linkFaults() {
+        return LinkFaultMenu.NAMES;
+    }
+
+    @Override
+    public ControlResult startSequence(String name) {
+        return ControlResult.refused("sequence runs from the console are not available in this build");
+    }
+
+    @Override
+    public ControlResult abort() {
+        return ControlResult.refused("no sequence is running");
+    }
+
+    @Override
+    public ControlResult setWind(double w) {
+        BenchMailbox m = mailbox;
+        if (m == null) {
+            return notRunning();
+        }
+        windMPerS = w;
+        long before = m.appliedCount();
+        m.postWind(w);
+        return applied(m, before, String.format(Locale.ROOT, "wind %.2f m/s", w));
+    }
+
+    @Override
+    public ControlResult voltageEvent(double levelPu, double durationS) {
+        BenchMailbox m = mailbox;
+        if (m == null) {
+            return notRunning();
+        }
+        long before = m.appliedCount();
+        m.postVoltageEvent(levelPu, steps(durationS));
+        return applied(m, before, String.format(Locale.ROOT, "%s: source %.3f pu for %.3f s",
+                levelPu < 1 ? "dip" : "swell", levelPu, durationS));
+    }
+
+    @Override
+    public ControlResult stepVoltageDeviationReference(double referencePu) {
+        BenchMailbox m = mailbox;
+        if (m == null) {
+            return notRunning();
+        }
+        long before = m.appliedCount();
+        m.postVoltageDeviationRef(referencePu);
+        return applied(m, before, String.format(Locale.ROOT, "voltage-deviation reference %.3f pu", referencePu));
+    }
+
+    @Override
+    public ControlResult injectLinkFault(String fault, double durationS) {
+        int kind = LinkFaultMenu.kindOf(fault);
+        if (kind < 0) {
+            return ControlResult.refused("unknown link fault '" + fault + "' (known: " + String.join(", ", LinkFaultMenu.NAMES) + ")");
+        }
+        BenchMailbox m = mailbox;
+        if (m == null) {
+            return notRunning();
+        }
+        long before = m.appliedCount();
+        m.postLinkFault(kind, steps(durationS));
+        return applied(m, before, String.format(Locale.ROOT, "link fault %s for %.3f s", fault, durationS));
+    }
+
+    private ControlResult notRunning() {
+        return ControlResult.refused("the plant is not running right now" + (lastProblem.isEmpty() ? "" : ": " + lastProblem));
+    }
+
+    private long steps(double durationS) {
+        return Math.max(1L, Math.round(durationS * 1e9 / settings.stepPeriodNs()));
+    }
+
+    /** Waits briefly for the real-time thread to apply the request, then logs when it did. */
+    private ControlResult applied(BenchMailbox m, long before, String what) {
+        long deadline = System.nanoTime() + APPLY_WAIT_MS * 1_000_000L;
+        while (m.appliedCount() == before && System.nanoTime() < deadline) {
+            sleepQuietly(1);
+        }
+        if (m.appliedCount() == before) {
+            logLine(what + " (posted; not applied within " + APPLY_WAIT_MS + " ms)");
+            return ControlResult.ok(what + ": posted");
+        }
+        double tS = m.lastAppliedStep() * settings.stepPeriodNs() * 1e-9;
+        String text = String.format(Locale.ROOT, "%s, applied at plant t = %.4f s", what, tS);
+        logLine(text);
+        return ControlResult.ok(text);
+    }
+
+    /** Appends one line to controls.log (wall time first). */
+    synchronized void logLine(String text) {
+        try {
+            controlLog.write(Instant.now() + "  " + text + System.lineSeparator());
+            controlLog.flush();
+        } catch (IOException e) {
+            lastProblem = "controls.log: " + e.getMessage();
+        }
+    }
+
+    /** Folder of this session. */
+    public Path sessionDir() {
+        return settings.sessionDir();
+    }
+
+    @Override
+    public void close() {
+        closing = true;
+        RealTimeLoop l = freeRun;
+        if (l != null) {
+            l.abort("bench closed");
+        }
+        try {
+            benchThread.join(15_000);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        }
+        logLine("session closed");
+        synchronized (this) {
+            try {
+                controlLog.close();
+            } catch (IOException ignored) {
+                // nothing more to log to
+            }
+        }
+    }
+
+    private static void sleepQuietly(long ms) {
+        try {
+            Thread.sleep(ms);
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+        }
+    }
+
+    static String firstSentence(String text) {
+        String t = text == null ? "" : text.replaceAll("\\s+", " ").trim();
+        int dot = t.indexOf(". ");
+        return dot < 0 ? t : t.substring(0, dot + 1);
+    }
+}
