@@ -338,19 +338,15 @@ public final class ReferenceController implements BoardController {
             final double emfAngle = Math.atan2(eq, ed); // EMF angle in the (pre-fault) PLL frame
             pllOffsetCos = Math.cos(-emfAngle);
             pllOffsetSin = Math.sin(-emfAngle);
+            // pre-fault reactive current: a 0.1 s mean, so the voltage loop's reaction to the
+            // first milliseconds of the dip (before detection) is not counted as pre-fault
+            reactivePreFaultPu = reactiveMean.value();
         }
         if (frtActive) {
             pll.step(ea * pllOffsetCos - eb * pllOffsetSin, ea * pllOffsetSin + eb * pllOffsetCos);
         } else {
             pll.step(va, vb);
-        }
-        if (!frtActive) {
             preFaultVoltage.step(u);
-        }
-        if (frtActive && !frtWasActive) {
-            // pre-fault reactive current: a 0.1 s mean, so the voltage loop's reaction to the
-            // first milliseconds of the dip (before detection) is not counted as pre-fault
-            reactivePreFaultPu = reactiveMean.value();
         }
         frtWasActive = frtActive;
 
@@ -362,7 +358,7 @@ public final class ReferenceController implements BoardController {
             voltageRefPu = u0 + in.voltageDeviationRefPu;
             reactivePu = kVoltage * (voltageRefPu - u);
         }
-        if (overrideGscIqPu == overrideGscIqPu) {
+        if (!Double.isNaN(overrideGscIqPu)) {
             reactivePu = -overrideGscIqPu;
         }
         if (!frtActive) {
@@ -461,7 +457,7 @@ public final class ReferenceController implements BoardController {
         } else {
             isqRef = torque / (1.5 * polePairs * psi);
         }
-        if (overrideMscIdA == overrideMscIdA) {
+        if (!Double.isNaN(overrideMscIdA)) {
             isdRef = overrideMscIdA;
         }
         final double imag = Math.sqrt(isdRef * isdRef + isqRef * isqRef);
