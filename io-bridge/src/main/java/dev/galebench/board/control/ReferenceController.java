@@ -493,9 +493,11 @@ public final class ReferenceController implements BoardController {
         pitchControl(wg, h, running);
 
         // ================= chopper
-        if (vdc > chopperOnV) {
+        // on the unfiltered measurement: the chopper is the fast protection of the DC link
+        final double vdcRaw = in.dcLinkVoltageV;
+        if (vdcRaw > chopperOnV) {
             chopperOn = true;
-        } else if (vdc < chopperOffV) {
+        } else if (vdcRaw < chopperOffV) {
             chopperOn = false;
         }
 

@@ -47,4 +47,29 @@ class ClosedLoopPhaseJumpTest {
         assertTrue(ClosedLoop.mean(dip, 2, 0.3, 0.35) > 1.0, "reactive current at the limit during the dip");
         assertEquals(cl.start.gridPowerW / TURBINE.ratedPowerW, ClosedLoop.mean(after, 2, 1.05, 1.15), 0.03);
     }
+
+    @Test
+    void shouldRideThroughDipsWithASlowerExchange() {
+        // exchange every 4 plant steps (200 us control period) with a dip to 0.05 pu, and every
+        // 10 steps (500 us, a slow serial link) with a dip to 0.2 pu: the same controller,
+        // re-sampled, rides through. Documented limit: at 300 us and slower the recovery from a
+        // 0.05 pu dip overloads the DC link (hardware DC trip), see CONTROLLER.md.
+        final int[] every = {4, 10};
+        final double[] depth = {0.05, 0.2};
+        for (int i = 0; i < every.length; i++) {
+            final int m = every[i];
+            final ClosedLoop cl = new ClosedLoop(TURBINE, ControllerFile.defaults(), 10.0).exchangeEvery(m);
+            cl.run(0.2);
+            cl.plant.setGridVoltagePu(depth[i], depth[i], depth[i]);
+            final double[][] dip = cl.record(0.15, 10, "v_dc_v", "i_reactive_pu", "trip_flags");
+            cl.plant.setGridVoltagePu(1, 1, 1);
+            final double[][] after = cl.record(0.8, 10, "v_dc_v", "p_grid_pu", "trip_flags");
+            System.out.printf("exchange every %d steps, dip to %.2f pu: DC max %.1f V, reactive in the dip %.3f pu (plant base), P after %.3f pu%n",
+                    m, depth[i], Math.max(ClosedLoop.max(dip, 1, 0, 2), ClosedLoop.max(after, 1, 0, 2)),
+                    ClosedLoop.mean(dip, 2, 0.3, 0.35), ClosedLoop.mean(after, 2, 1.05, 1.15));
+            assertEquals(0.0, ClosedLoop.max(dip, 3, 0, 2) + ClosedLoop.max(after, 3, 0, 2), "no trip at M = " + m);
+            assertTrue(ClosedLoop.mean(dip, 2, 0.3, 0.35) > 0.9, "reactive current during the dip");
+            assertEquals(cl.start.gridPowerW / TURBINE.ratedPowerW, ClosedLoop.mean(after, 2, 1.05, 1.15), 0.03);
+        }
+    }
 }
