@@ -75,6 +75,24 @@ class ProtectionTest {
     }
 
     @Test
+    void shouldStopBelowCutInAndRestartWhenTheWindReturns() {
+        final ControllerSettings s = ControllerFile.defaults();
+        final ClosedLoop cl = new ClosedLoop(TURBINE, s, 6.0);
+        cl.plant.setWindSpeed(TURBINE.cutInWindMPerS - 1.0);
+        cl.run(s.cutInDelayS - 1.0);
+        assertEquals(ReferenceController.STATE_RUNNING, cl.controller.state(), "not before the delay");
+        cl.run(s.windFilterS * 3 + 2.0);
+        assertEquals(ReferenceController.STATE_STOPPED_LOW_WIND, cl.controller.state());
+        assertTrue((cl.command.commandFlags & BoardCommand.CMD_GSC_ENABLE) != 0, "grid side keeps the DC link");
+        assertEquals(0, cl.plant.tripFlags());
+        cl.plant.setWindSpeed(6.0);
+        cl.run(s.windFilterS * 3 + s.cutInDelayS + 1.0);
+        assertEquals(ReferenceController.STATE_RUNNING, cl.controller.state());
+        assertEquals(0, cl.controller.tripCause());
+        assertEquals(1100, cl.signal("v_dc_v"), 11, "DC held throughout");
+    }
+
+    @Test
     void shouldTripOnDcOvervoltageAndOvercurrentFromTheMeasurement() {
         final ReferenceController ctl = new ReferenceController(TURBINE, ControllerFile.defaults());
         ctl.setSamplePeriod(50e-6);
