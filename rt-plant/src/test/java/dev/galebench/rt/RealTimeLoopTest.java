@@ -260,4 +260,28 @@ class RealTimeLoopTest {
             }
         });
     }
+
+    @Test
+    void shouldPinLoopThreadToRequestedCpu() throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(java.nio.file.Files.isExecutable(java.nio.file.Path.of("/usr/bin/taskset")),
+                "taskset (util-linux) is needed for pinning");
+        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+        String[] allowed = new String[1];
+        LoopConfig cfg = LoopFixtures.offline(1, 10).pinCpu(0).build();
+        LoopResult r = LoopFixtures.run(cfg, plant, new EchoBoardLink(), (step, p) -> {
+            if (step == 0) { // test only: reads a file on the loop thread once
+                try {
+                    for (String line : java.nio.file.Files.readAllLines(java.nio.file.Path.of("/proc/thread-self/status"))) {
+                        if (line.startsWith("Cpus_allowed_list:")) {
+                            allowed[0] = line.substring(line.indexOf(':') + 1).trim();
+                        }
+                    }
+                } catch (java.io.IOException e) {
+                    throw new java.io.UncheckedIOException(e);
+                }
+            }
+        }, List.of());
+        assertTrue(r.pinning.startsWith("pinned to CPU 0"), r.pinning);
+        assertEquals("0", allowed[0]);
+    }
 }
