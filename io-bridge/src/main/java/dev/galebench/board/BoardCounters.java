@@ -17,10 +17,16 @@ public final class BoardCounters {
     public volatile long sendFailures;
     /** Times the controller was (re)started: first frame, or the plant's sequence went backwards. */
     public volatile long starts;
+    /**
+     * Measurement frames passed over because a newer one was already waiting: after a stall
+     * the board answers the newest frame only, as a board sampling its latest inputs would.
+     */
+    public volatile long framesSkipped;
 
     @Override
     public String toString() {
         return "answered " + framesAnswered + ", crc errors " + crcErrors + ", malformed " + malformedFrames
-                + ", wrong profile " + wrongProfile + ", send failures " + sendFailures + ", controller starts " + starts;
+                + ", wrong profile " + wrongProfile + ", send failures " + sendFailures + ", controller starts " + starts
+                + ", skipped (newer waiting) " + framesSkipped;
     }
 }

@@ -119,14 +119,36 @@ public final class VirtualBoard implements AutoCloseable {
         }
     }
 
+    /**
+     * Blocking receive, then a non-blocking drain of whatever queued up meanwhile: only the
+     * newest frame is answered (the others are counted in {@link BoardCounters#framesSkipped}).
+     * Without the drain, one stall of this process (a descheduled core, a GC) leaves a backlog
+     * that is then answered frame by frame, every reply too old to be of use, for as long as the
+     * backlog takes to clear: the plant sees milliseconds of stale duties after a stall of one.
+     */
     private void runUdp() {
-        final ByteBuffer rx = ByteBuffer.allocateDirect(2048);
+        ByteBuffer rx = ByteBuffer.allocateDirect(2048);
+        ByteBuffer spare = ByteBuffer.allocateDirect(2048);
         final ByteBuffer tx = ByteBuffer.allocateDirect(FrameLayout.MAX_FRAME_LENGTH);
         while (!closed) {
             rx.clear();
-            final SocketAddress from;
+            SocketAddress from;
             try {
+                channel.configureBlocking(true);
                 from = channel.receive(rx);
+                channel.configureBlocking(false);
+                while (true) {
+                    spare.clear();
+                    final SocketAddress newer = channel.receive(spare);
+                    if (newer == null) {
+                        break;
+                    }
+                    counters.framesSkipped++;
+                    final ByteBuffer t = rx;
+                    rx = spare;
+                    spare = t;
+                    from = newer;
+                }
             } catch (ClosedChannelException e) {
                 return;
             } catch (IOException e) {
@@ -140,7 +162,9 @@ public final class VirtualBoard implements AutoCloseable {
             if (n > 0) {
                 tx.limit(n).position(0);
                 try {
-                    channel.send(tx, from);
+                    if (channel.send(tx, from) == 0) {
+                        counters.sendFailures++;
+                    }
                 } catch (IOException e) {
                     if (closed) {
                         return;
@@ -154,6 +178,7 @@ public final class VirtualBoard implements AutoCloseable {
     private void runSerial() {
         final CobsFramer framer = new CobsFramer(FrameLayout.MAX_FRAME_LENGTH, 8192);
         final byte[] frame = new byte[FrameLayout.MAX_FRAME_LENGTH + 1];
+        final byte[] latest = new byte[FrameLayout.MAX_FRAME_LENGTH + 1];
         final ByteBuffer rx = ByteBuffer.wrap(frame);
         final byte[] txBytes = new byte[FrameLayout.MAX_FRAME_LENGTH];
         final ByteBuffer tx = ByteBuffer.wrap(txBytes);
@@ -169,6 +194,8 @@ public final class VirtualBoard implements AutoCloseable {
                 continue;
             }
             framer.advance(got);
+            // as on UDP, answer only the newest complete frame of what arrived together
+            int newest = CobsFramer.NONE;
             while (true) {
                 final int length = framer.nextFrame(frame);
                 if (length == CobsFramer.NONE) {
@@ -178,6 +205,15 @@ public final class VirtualBoard implements AutoCloseable {
                     counters.malformedFrames++;
                     continue;
                 }
+                if (newest != CobsFramer.NONE) {
+                    counters.framesSkipped++;
+                }
+                newest = length;
+                System.arraycopy(frame, 0, latest, 0, length);
+            }
+            if (newest != CobsFramer.NONE) {
+                final int length = newest;
+                System.arraycopy(latest, 0, frame, 0, length);
                 final int n = handle(rx, length, tx);
                 if (n > 0) {
                     final int e = Cobs.encode(txBytes, 0, n, encoded, 0);
