@@ -18,6 +18,7 @@ package dev.galebench.rt;
  *   <tr><td>missedTickPolicy</td><td>-</td><td>CATCH_UP</td><td>see {@link MissedTickPolicy}</td></tr>
  *   <tr><td>offlineBackpressure</td><td>-</td><td>true</td><td>offline only: wait (spin) for a full consumer ring instead of dropping, so a regression run records every exchange; never in real time</td></tr>
  *   <tr><td>pitchRefMinRad, pitchRefMaxRad</td><td>rad</td><td>-0.1745, 1.5708 (-10 deg, 90 deg)</td><td>pitch references outside are rejected as invalid; set from the turbine's pitch limits</td></tr>
+ *   <tr><td>replyWaitNs</td><td>ns</td><td>0 (strict)</td><td>real time only: at a deadline whose frame is still unanswered, keep polling up to this long for the reply before stepping the plant. 0 = strict real time (step with the last good command). &gt; 0 = paced exchange: a slow board pauses plant time instead of being stepped past (every wait past the deadline is an overrun, and the schedule is re-based as with SKIP). For software boards on shared PCs and for bring-up; see LOOP.md</td></tr>
  *   <tr><td>timingIntervalNs</td><td>ns</td><td>1 000 000 000</td><td>interval of the timing histograms in the interval log and live snapshots</td></tr>
  * </table>
  */
@@ -35,6 +36,7 @@ public final class LoopConfig {
     public final double pitchRefMinRad;
     public final double pitchRefMaxRad;
     public final long timingIntervalNs;
+    public final long replyWaitNs;
 
     private LoopConfig(Builder b) {
         stepPeriodNs = b.stepPeriodNs;
@@ -50,6 +52,7 @@ public final class LoopConfig {
         pitchRefMinRad = b.pitchRefMinRad;
         pitchRefMaxRad = b.pitchRefMaxRad;
         timingIntervalNs = b.timingIntervalNs;
+        replyWaitNs = b.replyWaitNs;
     }
 
     /** Time between two exchanges, M h, ns. */
@@ -88,6 +91,7 @@ public final class LoopConfig {
         b.pitchRefMinRad = pitchRefMinRad;
         b.pitchRefMaxRad = pitchRefMaxRad;
         b.timingIntervalNs = timingIntervalNs;
+        b.replyWaitNs = replyWaitNs;
         return b;
     }
 
@@ -98,14 +102,14 @@ public final class LoopConfig {
                 + ", ringSize=" + ringSize + ", pinCpu=" + pinCpu + ", stopOnTrip=" + stopOnTrip
                 + ", missedTickPolicy=" + missedTickPolicy + ", offlineBackpressure=" + offlineBackpressure
                 + ", pitchRefRad=[" + pitchRefMinRad + ", " + pitchRefMaxRad + "], timingIntervalNs="
-                + timingIntervalNs + '}';
+                + timingIntervalNs + ", replyWaitNs=" + replyWaitNs + '}';
     }
 
     /**
      * Collects the fields; {@link #build()} checks them all and names the first bad one:
      * stepPeriodNs in [1 us, 1 s]; exchangeEverySteps in [1, 1 000 000]; durationSteps &gt; 0;
      * watchdogNs &gt; 0; ringSize a power of two in [2, 2^24]; pinCpu &ge; -1; pitch limits
-     * finite with min &lt; max; timingIntervalNs in [1 ms, 1 h].
+     * finite with min &lt; max; timingIntervalNs in [1 ms, 1 h]; replyWaitNs in [0, 10 s].
      */
     public static final class Builder {
         private long stepPeriodNs = 50_000;
@@ -121,6 +125,7 @@ public final class LoopConfig {
         private double pitchRefMinRad = Math.toRadians(-10.0);
         private double pitchRefMaxRad = Math.toRadians(90.0);
         private long timingIntervalNs = 1_000_000_000L;
+        private long replyWaitNs;
 
         private Builder() {
         }
@@ -137,6 +142,7 @@ public final class LoopConfig {
         public Builder offlineBackpressure(boolean v) { offlineBackpressure = v; return this; }
         public Builder pitchRefLimitsRad(double minRad, double maxRad) { pitchRefMinRad = minRad; pitchRefMaxRad = maxRad; return this; }
         public Builder timingIntervalNs(long v) { timingIntervalNs = v; return this; }
+        public Builder replyWaitNs(long v) { replyWaitNs = v; return this; }
 
         /** @throws IllegalArgumentException naming the first field out of range */
         public LoopConfig build() {
@@ -154,6 +160,7 @@ public final class LoopConfig {
                         + pitchRefMinRad + ", " + pitchRefMaxRad + "] rad");
             }
             check(timingIntervalNs >= 1_000_000 && timingIntervalNs <= 3_600_000_000_000L, "timingIntervalNs", timingIntervalNs, "[1e6, 3.6e12] ns");
+            check(replyWaitNs >= 0 && replyWaitNs <= 10_000_000_000L, "replyWaitNs", replyWaitNs, "[0, 1e10] ns (0 = strict real time)");
             return new LoopConfig(this);
         }
 

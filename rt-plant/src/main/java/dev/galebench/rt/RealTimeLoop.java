@@ -275,7 +275,8 @@ public final class RealTimeLoop {
         final int m = config.exchangeEverySteps;
         final long planned = config.plannedExchanges();
         final boolean realTime = config.realTime;
-        final boolean skip = config.missedTickPolicy == MissedTickPolicy.SKIP;
+        final long replyWaitNs = config.replyWaitNs;
+        final boolean skip = config.missedTickPolicy == MissedTickPolicy.SKIP || replyWaitNs > 0;
         final boolean stopOnTrip = config.stopOnTrip;
         final boolean waitForConsumers = !realTime && config.offlineBackpressure;
 
@@ -307,6 +308,17 @@ public final class RealTimeLoop {
                         Thread.onSpinWait();
                     }
                     now = System.nanoTime();
+                }
+                if (replyWaitNs > 0) {
+                    // paced exchange: a reply still due holds the plant up to replyWaitNs; the wait
+                    // shows as lateness and an overrun, and the schedule is re-based below
+                    final long giveUpNs = deadline + replyWaitNs;
+                    while (sup.awaitingReply() && now < giveUpNs && !abortRequested) {
+                        if (l.poll(rx) == BoardLink.POLL_REPLY) {
+                            sup.onReply(rx, System.nanoTime());
+                        }
+                        now = System.nanoTime();
+                    }
                 }
             }
             if (abortRequested) {

@@ -43,6 +43,12 @@ public final class DemoCommand implements Callable<Integer> {
             description = "Library sequence to run (default: ${DEFAULT-VALUE}).")
     String sequence;
 
+    @Option(names = "--reply-wait-us", paramLabel = "N", defaultValue = "20000",
+            description = "Paced exchange: wait up to N us for a late reply of the board, pausing plant time (counted as "
+                    + "overruns), so a stall of this shared PC shows in the timing report instead of tripping the plant; "
+                    + "0 = strict real time (default: ${DEFAULT-VALUE}).")
+    double replyWaitUs;
+
     @Option(names = "--quiet", description = "No progress bar.")
     boolean quiet;
 
@@ -67,6 +73,7 @@ public final class DemoCommand implements Callable<Integer> {
             o.board = uri;
             o.outBase = out;
             o.progress = !quiet;
+            o.replyWaitUs = replyWaitUs;
             SequenceRunner.Result r;
             try (dev.galebench.dashboard.Dashboard d = dashboard.startIfAsked(
                     dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { }, w)) {

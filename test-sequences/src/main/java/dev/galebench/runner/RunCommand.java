@@ -46,6 +46,11 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--exchange-every", paramLabel = "M", description = "Exchange with the board every M plant steps (default: the sequence's).")
     Integer exchangeEvery;
 
+    @Option(names = "--reply-wait-us", paramLabel = "N", defaultValue = "0",
+            description = "Real time with a board: 0 (default) = strict, a late reply is stepped past with the last good command; "
+                    + "N > 0 = paced exchange, wait up to N us for a late reply and pause plant time instead (counted as overruns).")
+    double replyWaitUs;
+
     @Option(names = "--csv", description = "Also write signals.csv (every signal, every exchange).")
     boolean csv;
 
@@ -74,6 +79,10 @@ public final class RunCommand implements Callable<Integer> {
         o.outBase = out;
         o.stepUs = stepUs == null ? Double.NaN : stepUs;
         o.exchangeEvery = exchangeEvery == null ? 0 : exchangeEvery;
+        if (!(replyWaitUs >= 0 && replyWaitUs <= 10_000_000)) {
+            throw new IllegalArgumentException("--reply-wait-us " + replyWaitUs + " is outside 0 .. 10000000");
+        }
+        o.replyWaitUs = replyWaitUs;
         o.csv = csv;
         o.progress = !quiet;
         o.err = err;

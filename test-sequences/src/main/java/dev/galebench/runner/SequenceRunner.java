@@ -99,6 +99,12 @@ public final class SequenceRunner {
          * then, with a board, this many seconds in real time against the board. 0 = no warm-up.
          */
         public double warmupS = 2.0;
+        /**
+         * Real-time runs with a board: 0 = strict real time (a reply that misses its exchange is
+         * stepped past with the last good command). &gt; 0 = paced exchange: wait up to this many
+         * microseconds for a late reply, pausing plant time (counted as overruns); see LoopConfig.
+         */
+        public double replyWaitUs;
         /** Live web console to feed (started by the command's --dashboard option), or null. */
         public dev.galebench.dashboard.Dashboard dashboard;
         /** More consumers. */
@@ -223,6 +229,7 @@ public final class SequenceRunner {
                 .durationSteps(schedule.totalSteps()).realTime(!o.offline && o.replayReplies == null)
                 .watchdogNs(Math.round(seq.watchdogUs() * 1000.0))
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
+                .replyWaitNs(Math.round(o.replyWaitUs * 1000.0))
                 .build();
         final TripAbortHook hook = new TripAbortHook(schedule, seq.allowedTripMask());
         final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link != null ? link : board, hook, consumers, layout);
@@ -316,6 +323,7 @@ public final class SequenceRunner {
                 .durationSteps(Math.max(1, Math.round(o.warmupS * 1e9 / s.stepPeriodNs))).realTime(true)
                 .watchdogNs(1_000_000_000L)
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
+                .replyWaitNs(Math.round(o.replyWaitUs * 1000.0))
                 .build();
         LoopResult w = new RealTimeLoop(cfg, plant, board, null, List.of(), SampleLayout.of(plant)).run();
         if (o.progress) {
