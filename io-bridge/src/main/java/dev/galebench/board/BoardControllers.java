@@ -10,13 +10,16 @@ public final class BoardControllers {
 
     /** Names accepted by {@link #create}. */
     public static String names() {
-        return "hold";
+        return "hold, reference";
     }
 
     /** A new controller called {@code name}; IllegalArgumentException naming the choices if unknown. */
     public static BoardController create(String name) {
         if ("hold".equals(name)) {
             return new HoldController();
+        }
+        if ("reference".equals(name)) {
+            return dev.galebench.board.control.ReferenceController.withDefaults();
         }
         throw new IllegalArgumentException("unknown board controller '" + name + "' (known: " + names() + ")");
     }

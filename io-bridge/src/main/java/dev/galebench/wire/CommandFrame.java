@@ -16,6 +16,7 @@ import java.nio.ByteOrder;
  * {@link FrameStatus#MALFORMED}.
  */
 public final class CommandFrame {
+    private final Crc32c crc = new Crc32c();
     private ByteBuffer buffer;
     private int offset;
 
@@ -53,7 +54,7 @@ public final class CommandFrame {
             b.putFloat(o + FrameLayout.FC_PITCH_REF, (float) c.pitchRefRad);
             b.putInt(o + FrameLayout.FC_COMMAND_FLAGS, c.commandFlags);
             b.putInt(o + FrameLayout.FC_BOARD_STATUS, c.boardStatus);
-            b.putInt(o + FrameLayout.FC_CRC, Crc32c.compute(b, o, FrameLayout.FC_CRC));
+            b.putInt(o + FrameLayout.FC_CRC, crc.of(b, o, FrameLayout.FC_CRC));
             return FrameLayout.FULL_COMMAND_LENGTH;
         }
         b.put(o + FrameLayout.OFFSET_KIND, (byte) FrameLayout.KIND_COMMAND_COMPACT);
@@ -69,7 +70,7 @@ public final class CommandFrame {
         b.putShort(o + FrameLayout.CC_PITCH_REF, Scaled.toInt16(c.pitchRefRad, FrameLayout.LSB_PITCH_RAD));
         b.putShort(o + FrameLayout.CC_COMMAND_FLAGS, (short) c.commandFlags);
         b.putShort(o + FrameLayout.CC_BOARD_STATUS, (short) c.boardStatus);
-        b.putInt(o + FrameLayout.CC_CRC, Crc32c.compute(b, o, FrameLayout.CC_CRC));
+        b.putInt(o + FrameLayout.CC_CRC, crc.of(b, o, FrameLayout.CC_CRC));
         return FrameLayout.COMPACT_COMMAND_LENGTH;
     }
 
@@ -86,7 +87,7 @@ public final class CommandFrame {
     public int decode(int length, long lastSentSequence, BoardCommand out) {
         final ByteBuffer b = buffer;
         final int o = offset;
-        final int kind = FrameChecks.checkFrame(b, o, length);
+        final int kind = FrameChecks.checkFrame(crc, b, o, length);
         if (kind < 0) {
             return -kind;
         }

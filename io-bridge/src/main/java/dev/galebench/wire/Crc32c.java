@@ -11,10 +11,34 @@ import java.nio.ByteBuffer;
  * it detects every burst up to 32 bits and all 1-3 bit errors at our frame lengths, and the
  * same 1 KiB table serves the C kit on an MCU without a hardware CRC unit.
  *
- * <p>Table-driven, one table lookup per byte, absolute reads only: it never moves a buffer's
- * position and allocates nothing (about 1 ns per byte here, i.e. ~130 ns for a full frame).
+ * <p>Two implementations of the same function. The static methods are table-driven, one
+ * lookup per byte, like the C kit: the portable reference. The instance method
+ * {@link #of(ByteBuffer, int, int)} runs {@link java.util.zip.CRC32C}, which the JVM compiles
+ * to the CPU's CRC32 instruction where there is one (SSE4.2, ARMv8): several times faster on
+ * a frame (see io-bridge/README.md). The codec flyweights use an instance each; both paths
+ * allocate nothing and are tested against each other.
  */
 public final class Crc32c {
+    private final java.util.zip.CRC32C jdk = new java.util.zip.CRC32C();
+
+    /**
+     * CRC-32C of {@code length} bytes of {@code buffer} from absolute index {@code offset},
+     * through the JDK's intrinsic. The buffer's position and limit are restored on return.
+     * One instance per thread.
+     */
+    public int of(ByteBuffer buffer, int offset, int length) {
+        final int position = buffer.position();
+        final int limit = buffer.limit();
+        buffer.limit(offset + length);
+        buffer.position(offset);
+        final java.util.zip.CRC32C c = jdk;
+        c.reset();
+        c.update(buffer);
+        buffer.limit(limit);
+        buffer.position(position);
+        return (int) c.getValue();
+    }
+
     private static final int[] TABLE = new int[256];
 
     static {
@@ -27,7 +51,9 @@ public final class Crc32c {
         }
     }
 
-    private Crc32c() {
+    /** An instance for {@link #of}; one per thread. */
+    public Crc32c() {
+        // the JDK CRC32C object is the only state
     }
 
     /** CRC-32C of {@code length} bytes of {@code buffer} starting at absolute index {@code offset}. */

@@ -12,13 +12,13 @@ final class FrameChecks {
      * {@link FrameStatus} code. Order: length first (it says where the CRC is), then CRC, then
      * header fields, so a corrupted valid-length frame is a CRC error, not "malformed".
      */
-    static int checkFrame(ByteBuffer b, int o, int length) {
+    static int checkFrame(Crc32c crc, ByteBuffer b, int o, int length) {
         if (length != FrameLayout.FULL_MEASUREMENT_LENGTH && length != FrameLayout.FULL_COMMAND_LENGTH
                 && length != FrameLayout.COMPACT_MEASUREMENT_LENGTH && length != FrameLayout.COMPACT_COMMAND_LENGTH) {
             return -FrameStatus.MALFORMED;
         }
         final int crcAt = length - FrameLayout.CRC_LENGTH;
-        if (Crc32c.compute(b, o, crcAt) != b.getInt(o + crcAt)) {
+        if (crc.of(b, o, crcAt) != b.getInt(o + crcAt)) {
             return -FrameStatus.CRC_ERROR;
         }
         if ((b.get(o) & 0xFF) != FrameLayout.MAGIC_0 || (b.get(o + 1) & 0xFF) != FrameLayout.MAGIC_1

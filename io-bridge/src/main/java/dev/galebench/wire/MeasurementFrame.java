@@ -11,6 +11,7 @@ import java.nio.ByteOrder;
  * input (status codes from {@link FrameStatus}). One instance per thread.
  */
 public final class MeasurementFrame {
+    private final Crc32c crc = new Crc32c();
     private ByteBuffer buffer;
     private int offset;
 
@@ -55,7 +56,7 @@ public final class MeasurementFrame {
             b.putFloat(o + FrameLayout.FM_STATOR_VOLTAGE_D, (float) view.statorVoltageDV);
             b.putFloat(o + FrameLayout.FM_STATOR_VOLTAGE_D + 4, (float) view.statorVoltageQV);
             b.putFloat(o + FrameLayout.FM_VOLTAGE_DEVIATION_REF, (float) view.voltageDeviationRefPu);
-            b.putInt(o + FrameLayout.FM_CRC, Crc32c.compute(b, o, FrameLayout.FM_CRC));
+            b.putInt(o + FrameLayout.FM_CRC, crc.of(b, o, FrameLayout.FM_CRC));
             return FrameLayout.FULL_MEASUREMENT_LENGTH;
         }
         b.put(o + FrameLayout.OFFSET_KIND, (byte) FrameLayout.KIND_MEASUREMENT_COMPACT);
@@ -74,7 +75,7 @@ public final class MeasurementFrame {
         b.putShort(o + FrameLayout.CM_PITCH_ANGLE, Scaled.toInt16(view.pitchAngleRad, FrameLayout.LSB_PITCH_RAD));
         b.putShort(o + FrameLayout.CM_VOLTAGE_DEVIATION_REF,
                 Scaled.toInt16(view.voltageDeviationRefPu, FrameLayout.LSB_VOLTAGE_DEVIATION_PU));
-        b.putInt(o + FrameLayout.CM_CRC, Crc32c.compute(b, o, FrameLayout.CM_CRC));
+        b.putInt(o + FrameLayout.CM_CRC, crc.of(b, o, FrameLayout.CM_CRC));
         return FrameLayout.COMPACT_MEASUREMENT_LENGTH;
     }
 
@@ -87,7 +88,7 @@ public final class MeasurementFrame {
     public int decode(int length, SensorView out) {
         final ByteBuffer b = buffer;
         final int o = offset;
-        final int kind = FrameChecks.checkFrame(b, o, length);
+        final int kind = FrameChecks.checkFrame(crc, b, o, length);
         if (kind < 0) {
             return -kind;
         }

@@ -9,6 +9,7 @@ import dev.galebench.plant.BoardCommand;
 import dev.galebench.plant.SensorView;
 import dev.galebench.rt.BoardLink;
 import dev.galebench.support.Allocations;
+import dev.galebench.support.PtyPair;
 import dev.galebench.support.SensorViews;
 import dev.galebench.wire.CommandFrame;
 import dev.galebench.wire.FrameStatus;
@@ -116,6 +117,38 @@ class LinkAllocationTest {
         } finally {
             board.close();
             t.join(5000);
+        }
+    }
+
+    @Test
+    void shouldSendAndPollSerialWithoutAllocating() throws Exception {
+        try (PtyPair pty = PtyPair.open()) {
+            final VirtualBoard board = VirtualBoard.serial(pty.second(), 921600, WireProfile.COMPACT, new HoldController(), 50e-6);
+            final Thread t = new Thread(board::run, "serial-board");
+            t.setDaemon(true);
+            t.start();
+            try (BoardLink link = BoardLinks.open("serial:" + pty.first(), LinkOptions.defaults().profile(WireProfile.COMPACT))) {
+                final SensorView view = SensorViews.sample(1);
+                final BoardCommand out = new BoardCommand();
+                final long[] seq = new long[1];
+                // one send per 8 polls: the pty and the blocking board keep up, so replies flow in the measured run
+                final Runnable body = () -> {
+                    for (int i = 0; i < ITERATIONS; i++) {
+                        if ((i & 7) == 0) {
+                            link.send(seq[0]++, view);
+                        }
+                        link.poll(out);
+                    }
+                };
+                body.run();
+                final long acceptedBefore = link.counters().repliesAccepted;
+                final long allocated = Allocations.measure(body);
+                assertEquals(0, allocated, "bytes allocated by 1 M serial polls and 125 k sends");
+                assertTrue(link.counters().repliesAccepted - acceptedBefore > 1000, "replies were read in the measured run");
+            } finally {
+                board.close();
+                t.join(5000);
+            }
         }
     }
 }

@@ -38,6 +38,7 @@ class Crc32cTest {
         // reference solution: java.util.zip.CRC32C (JDK 9+)
         final SplittableRandom random = new SplittableRandom(42);
         final CRC32C jdk = new CRC32C();
+        final Crc32c intrinsic = new Crc32c();
         for (int n = 0; n < 300; n++) {
             final byte[] data = new byte[random.nextInt(0, 300)];
             for (int i = 0; i < data.length; i++) {
@@ -46,6 +47,16 @@ class Crc32cTest {
             jdk.reset();
             jdk.update(data, 0, data.length);
             assertEquals((int) jdk.getValue(), Crc32c.compute(data, 0, data.length), "length " + data.length);
+            // the intrinsic path over heap and direct buffers, at an offset, position and limit restored
+            final ByteBuffer heap = ByteBuffer.allocate(data.length + 20);
+            final ByteBuffer direct = ByteBuffer.allocateDirect(data.length + 20);
+            heap.put(7, data);
+            direct.put(7, data);
+            heap.position(3).limit(5);
+            assertEquals(Crc32c.compute(data, 0, data.length), intrinsic.of(heap, 7, data.length));
+            assertEquals(Crc32c.compute(data, 0, data.length), intrinsic.of(direct, 7, data.length));
+            assertEquals(3, heap.position());
+            assertEquals(5, heap.limit());
         }
     }
 }

@@ -206,6 +206,55 @@ public final class SteadyState {
         return op;
     }
 
+    /**
+     * The settled point whose reactive power holds the terminal voltage at
+     * {@code terminalVoltagePu} (e.g. 1.0 on a weak grid, where unity power factor at the
+     * terminal would let the voltage sag). The terminal voltage rises with capacitive Q; the
+     * Q in -2..2 pu is found by a scan for a sign change over the solvable range and bisection.
+     *
+     * @throws IllegalArgumentException when no Q in -2..2 pu reaches the voltage
+     */
+    public static OperatingPoint solveAtTerminalVoltage(TurbineParameters p, double windMPerS, double gridVoltagePu,
+                                                        double terminalVoltagePu) {
+        if (!(terminalVoltagePu >= 0.1 && terminalVoltagePu <= 2.0)) {
+            throw new IllegalArgumentException("terminal voltage: must be within 0.1..2 pu, got " + terminalVoltagePu);
+        }
+        double prevQ = Double.NaN;
+        double prevErr = Double.NaN;
+        for (int i = 0; i <= 400; i++) {
+            double q = -2.0 + 0.01 * i;
+            double err;
+            try {
+                err = solve(p, windMPerS, gridVoltagePu, q).terminalVoltagePu - terminalVoltagePu;
+            } catch (IllegalArgumentException notCarried) {
+                prevQ = Double.NaN;
+                continue;
+            }
+            if (err == 0.0) {
+                return solve(p, windMPerS, gridVoltagePu, q);
+            }
+            if (prevQ == prevQ && (prevErr < 0.0) != (err < 0.0)) {
+                double lo = prevQ;
+                double hi = q;
+                boolean loNegative = prevErr < 0.0;
+                for (int k = 0; k < 100; k++) {
+                    double mid = 0.5 * (lo + hi);
+                    boolean negative = solve(p, windMPerS, gridVoltagePu, mid).terminalVoltagePu - terminalVoltagePu < 0.0;
+                    if (negative == loNegative) {
+                        lo = mid;
+                    } else {
+                        hi = mid;
+                    }
+                }
+                return solve(p, windMPerS, gridVoltagePu, 0.5 * (lo + hi));
+            }
+            prevQ = q;
+            prevErr = err;
+        }
+        throw new IllegalArgumentException("terminal voltage: no reactive power within -2..2 pu holds " + terminalVoltagePu
+                + " pu at " + windMPerS + " m/s and " + gridVoltagePu + " pu grid voltage");
+    }
+
     /** Aerodynamic torque with the plant's guards (see {@link TurbinePlant}): lambda floored at 1, no reverse drive at rest. */
     static final class Aero {
         private final CpSurface cps;

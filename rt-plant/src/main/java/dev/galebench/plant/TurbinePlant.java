@@ -128,6 +128,7 @@ public final class TurbinePlant implements PlantModel {
     private double voltageDeviationRefPu;
 
     // latched command
+    private final BoardCommand initialCommand = new BoardCommand();
     private double mscMa, mscMb, gscMa, gscMb, chopperDuty, pitchRefRad;
     private boolean mscOn, gscOn, breakerClosed, resetWasHigh;
     private int tripFlags;
@@ -247,7 +248,7 @@ public final class TurbinePlant implements PlantModel {
         // The held command is the one a settled board would have applied during the previous
         // step: duties for the angles at its middle (-h/2). Outputs at step ends then look the
         // same before and after the first step (the converter voltage is a zero-order hold).
-        BoardCommand c = new BoardCommand();
+        final BoardCommand c = initialCommand;
         op.fillCommand(c, -0.5 * h * op.generatorElectricalSpeedRadPerS, -0.5 * h * TWO_PI * nominalFrequencyHz,
                 op.dcLinkVoltageV);
         latch(c);

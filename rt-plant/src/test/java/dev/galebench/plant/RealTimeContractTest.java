@@ -29,6 +29,7 @@ class RealTimeContractTest {
         long before = mx.getThreadAllocatedBytes(tid);
         run(plant, driver, scenario, view, sample, 200_000, 1_200_000);
         long after = mx.getThreadAllocatedBytes(tid);
+        System.out.println("allocated " + (after - before) + " bytes over 1,000,000 steps (step + sense + sample + inputs)");
         assertTrue(after - before <= 1024, "allocated " + (after - before) + " bytes over 1,000,000 steps");
         assertEquals(1_200_000, plant.stepCount());
     }

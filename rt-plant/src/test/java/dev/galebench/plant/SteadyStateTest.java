@@ -4,6 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
+import org.apache.commons.math3.complex.Complex;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.params.ParameterizedTest;
 import org.junit.jupiter.params.provider.CsvSource;
@@ -23,6 +24,33 @@ class SteadyStateTest {
         // reactive power asked for at the terminal
         assertEquals(qPu * p.ratedPowerW, op.gridReactivePowerVar, 1e-6 * p.ratedPowerW);
         assertEquals(p.dcVoltageNominalV, op.dcLinkVoltageV, 0.0);
+    }
+
+    @ParameterizedTest(name = "wind {0} m/s, grid {1} pu, q {2} pu")
+    @CsvSource({"8, 1, 0", "12, 0.8, 0.4", "12, 1.1, -0.3", "20, 0.6, 0.2"})
+    void shouldSatisfyThePhasorCircuitOfTheGridConnection(double wind, double gridPu, double qPu) {
+        // phasor circuit analysis with Apache Commons Math Complex, independent of the closed form
+        OperatingPoint op = SteadyState.solve(p, wind, gridPu, qPu);
+        GridNetwork net = new GridNetwork(p);
+        double w = 2 * Math.PI * p.gridFrequencyHz;
+        Complex i = new Complex(op.gridCurrentDA, op.gridCurrentQA);
+        Complex e = new Complex(gridPu * PerUnitBase.gridSide(p).voltagePeakV, 0);
+        Complex zDown = new Complex(net.downstreamResistanceOhm(), w * net.downstreamInductanceH());
+        Complex zF = new Complex(net.chokeResistanceOhm, w * net.chokeInductanceH);
+        Complex vt = e.add(zDown.multiply(i));
+        Complex vc = vt.add(zF.multiply(i));
+        Complex sTerm = vt.multiply(i.conjugate()).multiply(1.5);
+        Complex sConv = vc.multiply(i.conjugate()).multiply(1.5);
+        double tol = 1e-9 * p.ratedPowerW;
+        assertEquals(op.gridPowerW, sTerm.getReal(), tol);
+        assertEquals(qPu * p.ratedPowerW, sTerm.getImaginary(), tol);
+        // the converter passes the generator's power (lossless converter, chopper off)
+        assertEquals(op.statorPowerW, sConv.getReal(), tol);
+        assertEquals(vc.getReal(), op.converterVoltageDV, 1e-9 * vc.abs());
+        assertEquals(vc.getImaginary(), op.converterVoltageQV, 1e-9 * vc.abs());
+        // power transfer through the downstream impedance: P_term - P_source = 1.5 R |I|^2
+        Complex sSource = e.multiply(i.conjugate()).multiply(1.5);
+        assertEquals(1.5 * net.downstreamResistanceOhm() * i.abs() * i.abs(), sTerm.getReal() - sSource.getReal(), tol);
     }
 
     @Test
@@ -46,6 +74,18 @@ class SteadyStateTest {
         CpSurface cps = CpSurface.of(p);
         assertEquals(cps.optimalTipSpeedRatio(), op.tipSpeedRatio, 1e-6);
         assertEquals(cps.maxCp(), op.cp, 1e-9);
+    }
+
+    @Test
+    void shouldFindTheReactivePowerThatHoldsTheTerminalVoltageOnAWeakGrid() {
+        TurbineParameters weak = p.with("grid.short_circuit_ratio", 1.5);
+        // at SCR 1.5 rated power at unity power factor at the terminal has no solution
+        assertThrows(IllegalArgumentException.class, () -> SteadyState.solve(weak, 12.0, 1.0, 0.0));
+        OperatingPoint held = SteadyState.solveAtTerminalVoltage(weak, 12.0, 1.0, 1.0);
+        assertEquals(1.0, held.terminalVoltagePu, 1e-9);
+        assertEquals(held.aeroPowerW, held.pocPowerW + held.lossesW, 1e-9 * p.ratedPowerW);
+        String m = assertThrows(IllegalArgumentException.class, () -> SteadyState.solveAtTerminalVoltage(p, 8.0, 0.3, 1.2)).getMessage();
+        assertTrue(m.startsWith("terminal voltage:"), m);
     }
 
     @Test

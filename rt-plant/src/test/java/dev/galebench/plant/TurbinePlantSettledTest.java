@@ -70,6 +70,65 @@ class TurbinePlantSettledTest {
         assertTrue(after[index(plant, "v_term_neg_pu")] < 1e-3, "balanced source gives no negative sequence");
     }
 
+    @ParameterizedTest(name = "{0}")
+    @CsvSource({"one-mass, drivetrain.two_mass, 0", "salient, generator.lq_h, 6.0e-4", "weak grid, grid.short_circuit_ratio, 3.0",
+        "no filters, measurement.current_filter_s, 0"})
+    void shouldStaySettledForVariantsOfTheTurbine(String name, String key, double value) {
+        TurbineParameters p = TurbineFile.defaults().with(key, value);
+        TurbineFile.validate(p, name);
+        OperatingPoint op = SteadyState.solve(p, 9.5, 1.0, 0.1);
+        TurbinePlant plant = new TurbinePlant(p, 50_000);
+        plant.initialise(op);
+        double[] before = new double[plant.signalCount()];
+        double[] after = new double[plant.signalCount()];
+        plant.sample(before);
+        new SteadyDriver(plant, op).run(20_000);
+        plant.sample(after);
+        assertEquals(0, plant.tripFlags());
+        for (String s : new String[] {"rotor_speed_rad_s", "generator_speed_rad_s", "t_shaft_nm", "t_gen_nm", "p_aero_w"}) {
+            int i = index(plant, s);
+            assertEquals(before[i], after[i], 1e-5 * Math.abs(before[i]), s);
+        }
+        for (String s : new String[] {"p_grid_w", "q_grid_var", "p_stator_w"}) {
+            int i = index(plant, s);
+            assertEquals(before[i], after[i], 1e-3 * p.ratedPowerW, s);
+        }
+        SensorView v = new SensorView();
+        plant.sense(v);
+        assertEquals(op.statorCurrentQA, v.statorCurrentQA, 2e-3 * Math.abs(op.statorCurrentQA), "measured i_q");
+    }
+
+    @org.junit.jupiter.api.Test
+    void shouldStaySettledWithAGearboxAndAFastGenerator() {
+        // geared variant: N = 97, 3 pole pairs (f_e = 69 Hz at rated), flux and inductance scaled
+        // to the same EMF and per-unit reactance as the direct drive
+        double we = 3 * 97 * 1.5;
+        TurbineParameters p = TurbineFile.defaults()
+                .with("drivetrain.gear_ratio", 97.0)
+                .with("generator.pole_pairs", 3.0)
+                .with("generator.magnet_flux_wb", 518.5 / we)
+                .with("generator.ld_h", 0.036 / we)
+                .with("generator.lq_h", 0.036 / we)
+                .with("drivetrain.generator_inertia_kg_m2", 8.0e5 / (97.0 * 97.0));
+        TurbineFile.validate(p, "geared");
+        OperatingPoint op = SteadyState.solve(p, 9.0, 1.0, 0.0);
+        assertEquals(97.0 * op.rotorSpeedRadPerS, op.generatorSpeedRadPerS, 1e-12);
+        TurbinePlant plant = new TurbinePlant(p, 20_000);
+        plant.initialise(op);
+        double[] before = new double[plant.signalCount()];
+        double[] after = new double[plant.signalCount()];
+        plant.sample(before);
+        new SteadyDriver(plant, op).run(50_000);
+        plant.sample(after);
+        assertEquals(0, plant.tripFlags());
+        for (String s : new String[] {"rotor_speed_rad_s", "generator_speed_rad_s", "t_shaft_nm", "t_gen_nm"}) {
+            int i = index(plant, s);
+            assertEquals(before[i], after[i], 1e-5 * Math.abs(before[i]), s);
+        }
+        assertEquals(op.gridPowerW, after[index(plant, "p_grid_w")], 2e-3 * p.ratedPowerW);
+        assertEquals(op.generatorTorqueNm, after[index(plant, "t_gen_nm")], 1e-4 * op.generatorTorqueNm);
+    }
+
     static int index(PlantModel plant, String name) {
         for (int i = 0; i < plant.signalCount(); i++) {
             if (plant.signalName(i).equals(name)) {

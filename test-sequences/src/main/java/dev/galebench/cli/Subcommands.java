@@ -13,6 +13,8 @@ final class Subcommands {
         commands.add(new dev.galebench.plant.cli.TurbineCommand());
         commands.add(new dev.galebench.board.BoardSubcommand());
         commands.add(new dev.galebench.runner.SequencesCommand());
+        commands.add(new dev.galebench.cli.preflight.PreflightCommand());
+        commands.add(new dev.galebench.board.control.ControllerCommand());
         commands.add(new dev.galebench.cli.serve.ServeCommand());
         return commands;
     }

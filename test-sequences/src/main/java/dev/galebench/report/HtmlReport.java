@@ -62,7 +62,20 @@ public final class HtmlReport {
             notices.add(notice("warn", "Samples dropped.", in.samplesDropped()
                     + " samples were missed by a consumer of the sample ring; recordings and streaming checks have gaps."));
         }
-        Recording rec = Recording.open(runDir, in.comtradeBaseName());
+        RecordingStats rs = in.recording();
+        if (rs != null && rs.failure() != null) {
+            notices.add(notice("error", "Recording stopped.", "The COMTRADE recorder failed (" + rs.failure() + "); "
+                    + rs.unrecordedSamples() + " samples were not recorded."));
+        }
+        if (rs != null && rs.totalClamped() > 0) {
+            StringBuilder which = new StringBuilder();
+            rs.clampedSamples().forEach((k, n) -> which.append(which.length() == 0 ? "" : ", ").append(k).append(": ").append(n));
+            notices.add(notice("warn", "Clipped samples in the recording.", rs.totalClamped()
+                    + " samples were outside their channel's range and were recorded at the range limit (" + which
+                    + "). Flat tops at the limit in those plots are the range, not the signal."));
+        }
+        // the recording's time 0 is its first sample, exchange 0, at plant time M x h
+        Recording rec = Recording.open(runDir, in.comtradeBaseName(), in.stepPeriodNs() * (double) in.exchangeEverySteps() * 1e-9);
         if (rec.problem != null) {
             notices.add(notice("info", "No waveforms.", rec.problem));
         }
@@ -83,7 +96,7 @@ public final class HtmlReport {
             List<DecimatedTraces.Window> windows = new ArrayList<>();
             List<Object> keys = new ArrayList<>();
             for (String s : fullSignals) {
-                windows.add(new DecimatedTraces.Window(s, 0.0, rec.endS, BUCKETS_PER_PLOT));
+                windows.add(new DecimatedTraces.Window(s, 0.0, rec.endS - rec.offsetS, BUCKETS_PER_PLOT));
                 keys.add(s);
             }
             for (int i = 0; i < checks.size(); i++) {
@@ -95,13 +108,21 @@ public final class HtmlReport {
                 double margin = Math.max(0.25 * span, 0.01);
                 double from = Math.max(0.0, c.windowStartS() - margin);
                 double to = Math.min(rec.endS, c.windowEndS() + margin);
-                if (to > from) {
+                if (to > from && to > rec.offsetS) {
                     zoomRange[i] = new double[] {from, to};
-                    windows.add(new DecimatedTraces.Window(c.signal(), from, to, BUCKETS_PER_PLOT));
+                    windows.add(new DecimatedTraces.Window(c.signal(), Math.max(0.0, from - rec.offsetS), to - rec.offsetS,
+                            BUCKETS_PER_PLOT));
                     keys.add(i);
                 }
             }
-            List<DecimatedTraces.Trace> traces = DecimatedTraces.readWindows(rec.reader, windows);
+            List<DecimatedTraces.Trace> traces = new ArrayList<>();
+            for (DecimatedTraces.Trace t : DecimatedTraces.readWindows(rec.reader, windows)) {
+                double[] plantTimeS = t.timeS().clone();
+                for (int k = 0; k < plantTimeS.length; k++) {
+                    plantTimeS[k] += rec.offsetS;
+                }
+                traces.add(new DecimatedTraces.Trace(t.id(), t.unit(), plantTimeS, t.value()));
+            }
             for (int k = 0; k < traces.size(); k++) {
                 if (keys.get(k) instanceof String s) {
                     full.put(s, traces.get(k));
@@ -183,6 +204,7 @@ public final class HtmlReport {
         page.put("link_table", linkTable(in.link()));
         page.put("environment_rows", environmentRows(in));
         page.put("file_rows", fileRows(runDir, in));
+        page.put("channels", channelTable(rec, in.recording()));
         page.put("written_at", LocalDateTime.ofInstant(writtenAt, ZoneOffset.UTC).format(WHEN));
         return Template.of("report.html").render(page);
     }
@@ -334,6 +356,16 @@ public final class HtmlReport {
         env.put("exchange every M steps", in.exchangeEverySteps() + " (one exchange every "
                 + trim(in.stepPeriodNs() * (double) in.exchangeEverySteps() / 1000.0) + " µs)");
         env.putAll(in.environment());
+        Map<String, Object> loop = in.loopSummary();
+        if (loop != null) {
+            for (String k : List.of("stop", "stop_detail", "real_time", "wall_time_s", "skipped_exchanges", "samples_missed",
+                    "clamped_timing_values")) {
+                Object v = loop.get(k);
+                if (v != null && !v.toString().isEmpty()) {
+                    env.put("loop " + k, v.toString());
+                }
+            }
+        }
         StringBuilder rows = new StringBuilder();
         for (Map.Entry<String, String> e : env.entrySet()) {
             rows.append(Template.of("kv-row.html").render(Map.of("key", e.getKey(),
@@ -363,6 +395,48 @@ public final class HtmlReport {
         return rows.toString();
     }
 
+    /** Scaling of every recorded channel, from the .cfg itself: range = b -+ 32767 a, resolution = a. */
+    private static String channelTable(Recording rec, RecordingStats stats) {
+        if (rec.reader == null) {
+            return "";
+        }
+        ComtradeConfig c = rec.reader.config();
+        StringBuilder rows = new StringBuilder();
+        for (ComtradeConfig.AnalogChannel ch : c.analogChannels) {
+            double low = ch.b() + ch.minCode() * ch.a();
+            double high = ch.b() + ch.maxCode() * ch.a();
+            // a and b are rounded to 9 digits, so a limit meant as 0 comes out as 1e-9 of the span
+            low = Math.abs(low) < ch.a() ? 0.0 : low;
+            high = Math.abs(high) < ch.a() ? 0.0 : high;
+            Long clamped = stats == null ? null : stats.clampedSamples().get(ch.id());
+            rows.append(Template.of("channel-row.html").render(Map.of("id", ch.id(), "unit", ch.unit(),
+                    "low", engineering(low), "high", engineering(high), "resolution", engineering(ch.a()),
+                    "clamped", stats == null ? "?" : Long.toString(clamped == null ? 0 : clamped))));
+        }
+        List<String> status = new ArrayList<>();
+        for (ComtradeConfig.StatusChannel ch : c.statusChannels) {
+            status.add(ch.id());
+        }
+        String rate = c.stampsCritical || c.sampleRates.isEmpty() ? "time-stamped rate"
+                : trim(c.sampleRates.get(c.sampleRates.size() - 1).rateHz()) + " Hz";
+        return Template.of("channels.html").render(Map.of("analog_count", Integer.toString(c.analogChannels.size()),
+                "status_count", Integer.toString(c.statusChannels.size()),
+                "records", String.format(Locale.ROOT, "%,d", c.announcedRecordCount()), "rate", rate,
+                "rows", rows.toString(), "status_names", status.isEmpty() ? "none" : String.join(", ", status)));
+    }
+
+    /** Four significant digits, plain notation for ordinary magnitudes. */
+    static String engineering(double v) {
+        if (v == 0) {
+            return "0";
+        }
+        double a = Math.abs(v);
+        if (a >= 1e-3 && a < 1e7) {
+            return new java.math.BigDecimal(v).round(new java.math.MathContext(4)).stripTrailingZeros().toPlainString();
+        }
+        return String.format(Locale.ROOT, "%.3e", v);
+    }
+
     private static String notice(String level, String title, String text) {
         return Template.of("notice.html").render(Map.of("level", level, "title", title, "text", text));
     }
@@ -379,11 +453,15 @@ public final class HtmlReport {
     /** The run's COMTRADE recording, if there is a readable one. */
     private static final class Recording {
         ComtradeReader reader;
+        /** Plant time of the last record, s. */
         double endS;
+        /** Plant time of the first record, s. */
+        double offsetS;
         String problem;
 
-        static Recording open(Path runDir, String baseName) {
+        static Recording open(Path runDir, String baseName, double firstSamplePlantTimeS) {
             Recording r = new Recording();
+            r.offsetS = firstSamplePlantTimeS;
             if (baseName == null) {
                 r.problem = "This run was not recorded, so no signal can be plotted.";
                 return r;
@@ -400,8 +478,9 @@ public final class HtmlReport {
                     r.reader.read((n, t, a, s) -> last[0] = t);
                     r.endS = last[0];
                 }
-                if (r.endS <= 0) {
-                    r.endS = 1e-3;
+                r.endS += r.offsetS;
+                if (r.endS <= r.offsetS) {
+                    r.endS = r.offsetS + 1e-3;
                 }
             } catch (IOException | IllegalArgumentException e) {
                 r.reader = null;

@@ -39,6 +39,8 @@ import java.util.Map;
  *   <tr><td>csvFileName</td><td>-</td><td>CSV file in the run folder, or null</td></tr>
  *   <tr><td>timingLogFileName</td><td>-</td><td>HdrHistogram interval log in the run folder (normally {@code timing.hlog}), or null</td></tr>
  *   <tr><td>plotSignals</td><td>-</td><td>extra signals to plot besides those the checks use (e.g. v_term_pu, v_dc_v)</td></tr>
+ *   <tr><td>loopSummary</td><td>-</td><td>the loop's own summary ({@code LoopResult.summary()}: stop reason, wall time, skipped exchanges, reply age, samples missed per consumer, ...), or null</td></tr>
+ *   <tr><td>recording</td><td>-</td><td>the COMTRADE recorder's counters ({@link RecordingStats#of}), or null</td></tr>
  * </table>
  */
 public record RunReportInput(String sequenceName, String sequenceFile, String description, boolean passed,
@@ -47,7 +49,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
                              LinkCounters link, long samplesDropped, Map<String, String> environment,
                              long stepPeriodNs, int exchangeEverySteps, Instant startedAt, double plantDurationS,
                              String comtradeBaseName, String csvFileName, String timingLogFileName,
-                             List<String> plotSignals) {
+                             List<String> plotSignals, RecordingStats recording, Map<String, Object> loopSummary) {
     public RunReportInput {
         if (sequenceName == null || sequenceName.isBlank()) {
             throw new IllegalArgumentException("sequence name is required");
@@ -55,6 +57,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         checks = List.copyOf(checks);
         environment = environment == null ? Map.of() : java.util.Collections.unmodifiableMap(new LinkedHashMap<>(environment));
         plotSignals = plotSignals == null ? List.of() : List.copyOf(plotSignals);
+        loopSummary = loopSummary == null ? null : java.util.Collections.unmodifiableMap(new LinkedHashMap<>(loopSummary));
         if (startedAt == null) {
             throw new IllegalArgumentException("startedAt is required");
         }
@@ -99,6 +102,8 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         private String csvFileName;
         private String timingLogFileName;
         private List<String> plotSignals = List.of();
+        private RecordingStats recording;
+        private Map<String, Object> loopSummary;
 
         private Builder(String sequenceName) {
             this.sequenceName = sequenceName;
@@ -125,11 +130,13 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
         public Builder csvFileName(String v) { csvFileName = v; return this; }
         public Builder timingLogFileName(String v) { timingLogFileName = v; return this; }
         public Builder plotSignals(List<String> v) { plotSignals = v; return this; }
+        public Builder recording(RecordingStats v) { recording = v; return this; }
+        public Builder loopSummary(Map<String, Object> v) { loopSummary = v; return this; }
 
         /**
          * Takes everything the real-time loop measured: timing histograms, overruns, exchanges,
          * link counters, samples missed by all consumers, step and exchange settings, plant
-         * time. A run stopped by an abort or an error gets {@code abortedReason} = stop reason
+         * time, and the loop's own summary map. A run stopped by an abort or an error gets {@code abortedReason} = stop reason
          * and detail; a plant trip is a completed run whose checks judge it. The verdict stays
          * the caller's.
          */
@@ -144,6 +151,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
             stepPeriodNs = r.config.stepPeriodNs;
             exchangeEverySteps = r.config.exchangeEverySteps;
             plantDurationS = r.steps * (double) r.config.stepPeriodNs * 1e-9;
+            loopSummary = r.summary();
             if (r.aborted()) {
                 abortedReason = r.stopReason.name().toLowerCase(java.util.Locale.ROOT)
                         + (r.stopDetail == null || r.stopDetail.isEmpty() ? "" : ": " + r.stopDetail);
@@ -155,7 +163,7 @@ public record RunReportInput(String sequenceName, String sequenceFile, String de
             return new RunReportInput(sequenceName, sequenceFile, description, passed, abortedReason, checks,
                     latenessNs, computeNs, roundTripNs, overruns, exchanges, link, samplesDropped, environment,
                     stepPeriodNs, exchangeEverySteps, startedAt, plantDurationS, comtradeBaseName, csvFileName,
-                    timingLogFileName, plotSignals);
+                    timingLogFileName, plotSignals, recording, loopSummary);
         }
     }
 }

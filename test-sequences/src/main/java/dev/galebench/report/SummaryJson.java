@@ -93,6 +93,26 @@ public final class SummaryJson {
             link.put("send_failures", l.sendFailures);
             link.put("watchdog_trips", l.watchdogTrips);
         }
+        RecordingStats rs = in.recording();
+        if (rs == null) {
+            root.putNull("recording");
+        } else {
+            ObjectNode rec = root.putObject("recording");
+            rec.put("records", rs.records());
+            ObjectNode clamped = rec.putObject("clamped_samples");
+            rs.clampedSamples().forEach(clamped::put);
+            ObjectNode missing = rec.putObject("missing_samples");
+            rs.missingSamples().forEach(missing::put);
+            rec.put("gaps", rs.gaps());
+            rec.put("stamp_overflows", rs.stampOverflows());
+            rec.put("unrecorded_samples", rs.unrecordedSamples());
+            rec.put("failure", rs.failure());
+        }
+        if (in.loopSummary() == null) {
+            root.putNull("loop");
+        } else {
+            root.set("loop", MAPPER.valueToTree(in.loopSummary()));
+        }
         ObjectNode files = root.putObject("files");
         files.put("report_html", RunReports.REPORT_HTML);
         files.put("junit_xml", RunReports.JUNIT_XML);

@@ -17,6 +17,8 @@ import java.util.List;
  * @param initial    operating point the run starts settled in
  * @param stepUs     plant step, us
  * @param exchangeEvery plant steps per exchange with the board
+ * @param watchdogUs time without a valid reply after which the link watchdog blocks the
+ *                   converters and trips the plant, us
  * @param durationS  run length, s of plant time
  * @param allowedTrips plant trips that are part of the test (do not abort the run), e.g.
  *                   {@code link_watchdog}
@@ -24,7 +26,7 @@ import java.util.List;
  * @param checks     the checks, in file order
  */
 public record Sequence(String name, String purpose, String source, Path baseDir, String turbine, String controller,
-                       Initial initial, double stepUs, int exchangeEvery, double durationS, List<String> allowedTrips,
+                       Initial initial, double stepUs, int exchangeEvery, double watchdogUs, double durationS, List<String> allowedTrips,
                        List<Action> actions, List<CheckDef> checks) {
 
     /**
@@ -32,14 +34,10 @@ public record Sequence(String name, String purpose, String source, Path baseDir,
      *
      * @param windMPerS         hub wind speed, m/s
      * @param gridVoltagePu     grid source voltage, pu
-     * @param reactivePowerPu   reactive power set point at the terminal, pu of rated power
+     * @param reactivePowerPu   reactive power at the terminal, pu of rated power
      *                          (positive = capacitive)
-     * @param shortCircuitRatio grid SCR, or NaN for the turbine file's value
-     * @param xOverR            grid X/R, or NaN for the turbine file's value
-     * @param gridFrequencyHz   grid frequency, or NaN for the turbine file's nominal
      */
-    public record Initial(double windMPerS, double gridVoltagePu, double reactivePowerPu, double shortCircuitRatio,
-                          double xOverR, double gridFrequencyHz) {
+    public record Initial(double windMPerS, double gridVoltagePu, double reactivePowerPu) {
     }
 
     /** Trip names a sequence may allow, with the plant's trip bits. */

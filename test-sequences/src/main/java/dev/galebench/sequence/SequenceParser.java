@@ -121,9 +121,11 @@ public final class SequenceParser {
             Sequence.Initial initial = initial(top.object("initial"));
             double stepUs = 50;
             int exchangeEvery = 1;
+            double watchdogUs = 20_000;
             if (top.has("timing")) {
                 YamlObject t = top.object("timing");
-                t.allowOnly("step_us", "exchange_every");
+                t.allowOnly("step_us", "exchange_every", "watchdog_us");
+                watchdogUs = t.number("watchdog_us", 20_000, 1, 10_000_000, "us");
                 stepUs = t.number("step_us", 50, 1, 1000, "us");
                 if (Math.abs(stepUs * 1000 - Math.rint(stepUs * 1000)) > 1e-6) {
                     throw new SequenceException(t.markOf("step_us"), "step_us must be a whole number of ns");
@@ -140,7 +142,7 @@ public final class SequenceParser {
                 actions.add(action(YamlObject.of(label, n, "an action")));
             }
             actions.sort(Comparator.comparingDouble(Action::atS));
-            Timeline.validate(actions, durationS, initial.gridFrequencyHz());
+            Timeline.validate(actions, durationS, Double.NaN);
             List<CheckDef> checks = new ArrayList<>();
             Set<String> names = new HashSet<>();
             for (Node n : top.list("checks")) {
@@ -154,7 +156,7 @@ public final class SequenceParser {
                 throw new SequenceException(top.mark(), "a sequence needs at least one check under 'checks'");
             }
             return new Sequence(name, purpose, label, baseDir, turbine, controller, initial, stepUs, exchangeEvery,
-                    durationS, List.copyOf(trips), List.copyOf(actions), List.copyOf(checks));
+                    watchdogUs, durationS, List.copyOf(trips), List.copyOf(actions), List.copyOf(checks));
         }
 
         private String tripName(Node n) {
@@ -168,14 +170,10 @@ public final class SequenceParser {
         }
 
         private Sequence.Initial initial(YamlObject o) {
-            o.allowOnly("wind_m_s", "grid_voltage_pu", "reactive_power_pu", "short_circuit_ratio", "x_over_r",
-                    "grid_frequency_hz");
+            o.allowOnly("wind_m_s", "grid_voltage_pu", "reactive_power_pu");
             return new Sequence.Initial(o.number("wind_m_s", 0, 40, "m/s"),
                     o.number("grid_voltage_pu", 1.0, 0.8, 1.2, "pu"),
-                    o.number("reactive_power_pu", 0.0, -1.0, 1.0, "pu"),
-                    o.number("short_circuit_ratio", Double.NaN, 1.0, 1000, ""),
-                    o.number("x_over_r", Double.NaN, 0.1, 100, ""),
-                    o.number("grid_frequency_hz", Double.NaN, 40, 70, "Hz"));
+                    o.number("reactive_power_pu", 0.0, -1.0, 1.0, "pu"));
         }
 
         /** An action item: {@code at_s} plus exactly one action key. */

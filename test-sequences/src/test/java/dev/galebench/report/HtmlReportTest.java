@@ -1,7 +1,7 @@
 package dev.galebench.report;
 
-import dev.galebench.report.support.DemoRun;
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.DemoRun;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -69,6 +69,12 @@ class HtmlReportTest {
         assertTrue(html.contains("<th>jvm_flags</th>"));
         assertTrue(html.contains("href=\"recording.cfg\""));
         assertTrue(html.contains("href=\"timing.hlog\""));
+        // the demo's 10 samples beyond the current range are reported, not hidden
+        assertTrue(html.contains("10 samples were outside their channel&#39;s range") && html.contains("i_grid_a_a: 10"),
+                "clamp notice");
+        // channel table from the .cfg: the current channel spans +-1.5 x 5200 A with 0.238 A steps, 10 clamped
+        assertTrue(html.contains("<tr><td class=\"mono\">i_grid_a_a</td><td>A</td><td class=\"num\">-7800</td>"
+                + "<td class=\"num\">7800</td><td class=\"num\">0.238</td><td class=\"num\">10</td></tr>"), "channel row");
         // the other two files exist too
         assertTrue(Files.size(out.resolve("summary.json")) > 0);
         assertTrue(Files.size(out.resolve("junit.xml")) > 0);

@@ -1,6 +1,6 @@
 package dev.galebench.report;
 
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.w3c.dom.Document;
@@ -90,7 +90,7 @@ class JunitXmlTest {
     }
 
     @Test
-    void schemaShouldRejectASuiteWithoutItsRequiredCounts(@TempDir Path dir) throws Exception {
+    void shouldHaveASchemaThatRejectsASuiteWithoutItsRequiredCounts(@TempDir Path dir) throws Exception {
         // the validation in the tests above can fail: a file missing required attributes is refused
         Path bad = dir.resolve("bad.xml");
         Files.writeString(bad, "<testsuites><testsuite name=\"x\"><testcase name=\"c\"/></testsuite></testsuites>");

@@ -7,7 +7,7 @@ import dev.galebench.report.recording.ComtradeRecorder;
 import dev.galebench.report.recording.ComtradeSettings;
 import dev.galebench.report.recording.CsvRecorder;
 import dev.galebench.report.recording.SignalRanges;
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import dev.galebench.rt.LoopConfig;
 import dev.galebench.rt.LoopResult;
 import dev.galebench.rt.RealTimeLoop;
@@ -60,7 +60,7 @@ class RunFolderWithRealLoopTest {
 
         RunReportInput in = RunReportInput.builder("first_order_offline").fromLoop(result).passed(true)
                 .environment(RunEnvironment.capture()).comtradeBaseName("recording").csvFileName("signals.csv")
-                .timingLogFileName("timing.hlog").plotSignals(List.of("x_v")).build();
+                .timingLogFileName("timing.hlog").plotSignals(List.of("x_v")).recording(RecordingStats.of(recording)).build();
         RunReports.writeAll(dir, in);
         JsonNode summary = new ObjectMapper().readTree(dir.resolve("summary.json").toFile());
         assertEquals("pass", summary.get("verdict").asText());
@@ -68,9 +68,14 @@ class RunFolderWithRealLoopTest {
         assertEquals(2.0, summary.get("plant_duration_s").asDouble(), 1e-9);
         assertEquals(steps, summary.get("timing").get("compute_us").get("count").asLong());
         assertEquals(0, summary.get("samples_dropped").asLong());
+        assertEquals(steps, summary.get("recording").get("records").asLong());
+        assertEquals(0, summary.get("recording").get("gaps").asLong());
+        assertEquals("COMPLETED", summary.get("loop").get("stop").asText());
+        assertEquals(steps, summary.get("loop").get("exchanges").asLong());
         String html = Files.readString(dir.resolve("report.html"));
         assertTrue(html.contains("<h1>first_order_offline</h1>"));
         assertTrue(html.contains("href=\"timing.hlog\""));
+        assertTrue(html.contains("<th>loop stop</th><td class=\"mono\">COMPLETED</td>"), "loop summary in the environment panel");
         assertTrue(html.contains("x_v over") || html.contains("aria-label=\"x_v\""));
     }
 }

@@ -2,7 +2,7 @@ package dev.galebench.report;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import dev.galebench.report.support.RunInputs;
+import dev.galebench.testsupport.RunInputs;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -27,7 +27,7 @@ class SummaryJsonTest {
         // the schema of REPORTS.md, key by key and in order
         assertEquals(List.of("format", "format_version", "verdict", "sequence", "aborted_reason", "started_at",
                 "plant_duration_s", "step_period_us", "exchange_every_steps", "exchanges", "checks_passed",
-                "checks_failed", "checks", "timing", "samples_dropped", "link", "files", "environment"), keys(root));
+                "checks_failed", "checks", "timing", "samples_dropped", "link", "recording", "loop", "files", "environment"), keys(root));
         assertEquals("fail", root.get("verdict").asText());
         assertEquals(1, root.get("format_version").asInt());
         assertEquals(2, root.get("checks").size());
@@ -59,6 +59,7 @@ class SummaryJsonTest {
         assertEquals("recording.cfg", root.get("files").get("comtrade_cfg").asText());
         assertEquals("timing.hlog", root.get("files").get("timing_log").asText());
         assertEquals("bench-7", root.get("environment").get("host").asText());
+        assertTrue(root.get("recording").isNull());
     }
 
     @Test
@@ -70,5 +71,18 @@ class SummaryJsonTest {
         assertTrue(root.get("link").isNull());
         assertTrue(root.get("aborted_reason").isNull());
         assertEquals(0, root.get("timing").get("overruns").asLong());
+    }
+
+    @Test
+    void shouldCountClampedAndMissingSamplesOfTheRecording(@TempDir Path dir) throws Exception {
+        RecordingStats rs = new RecordingStats(1000, java.util.Map.of("i_grid_a_a", 12L), java.util.Map.of("rtt_us", 3L), 1, 0, 0, null);
+        JsonNode root = new ObjectMapper().readTree(SummaryJson.write(dir, RunInputs.failing().recording(rs).build()).toFile());
+        JsonNode rec = root.get("recording");
+        assertEquals(List.of("records", "clamped_samples", "missing_samples", "gaps", "stamp_overflows", "unrecorded_samples",
+                "failure"), keys(rec));
+        assertEquals(12, rec.get("clamped_samples").get("i_grid_a_a").asLong());
+        assertEquals(3, rec.get("missing_samples").get("rtt_us").asLong());
+        assertEquals(1, rec.get("gaps").asLong());
+        assertTrue(rec.get("failure").isNull());
     }
 }

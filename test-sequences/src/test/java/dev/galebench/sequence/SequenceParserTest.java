@@ -147,8 +147,8 @@ class SequenceParserTest {
 
     @Test
     void shouldRejectAnImpossibleFrequencyRamp() {
-        String text = SequenceTexts.with("  - at_s: 1.0\n    frequency_ramp: {to_hz: 50, rate_hz_s: 1}\n",
-                SequenceTexts.NO_TRIP).replace("  wind_m_s: 10.0\n", "  wind_m_s: 10.0\n  grid_frequency_hz: 50\n");
+        String text = SequenceTexts.with("  - at_s: 0.5\n    frequency_step: {to_hz: 50}\n"
+                + "  - at_s: 1.0\n    frequency_ramp: {to_hz: 50, rate_hz_s: 1}\n", SequenceTexts.NO_TRIP);
         SequenceException e = refuse(text);
         assertTrue(e.reason().contains("the frequency is already 50 Hz"), e.reason());
     }

@@ -159,6 +159,10 @@ public final class TurbineCommand implements Runnable {
                 description = "reactive power at the terminal, pu of rated power, positive = capacitive (-2..2; default ${DEFAULT-VALUE})")
         double reactivePowerPu;
 
+        @Option(names = "--terminal-voltage", paramLabel = "PU",
+                description = "instead of --q-pu: find the reactive power that holds this terminal voltage, pu (0.1..2)")
+        Double terminalVoltagePu;
+
         @Option(names = "--turbine", paramLabel = "FILE", description = "turbine file (YAML or JSON); default: the shipped turbine")
         Path turbine;
 
@@ -169,7 +173,9 @@ public final class TurbineCommand implements Runnable {
         public Integer call() {
             OperatingPoint op;
             try {
-                op = SteadyState.solve(load(turbine), wind, gridVoltagePu, reactivePowerPu);
+                op = terminalVoltagePu == null
+                        ? SteadyState.solve(load(turbine), wind, gridVoltagePu, reactivePowerPu)
+                        : SteadyState.solveAtTerminalVoltage(load(turbine), wind, gridVoltagePu, terminalVoltagePu);
             } catch (IllegalArgumentException e) {
                 return fail(spec, e);
             }

@@ -60,6 +60,13 @@ class TurbineCommandTest {
     }
 
     @Test
+    void shouldHoldTheTerminalVoltageWhenAsked() throws Exception {
+        assertEquals(0, run("steady", "--wind", "12", "--terminal-voltage", "1.02", "--json"));
+        JsonNode n = new ObjectMapper().readTree(out.toString());
+        assertEquals(1.02, n.get("v_term_pu").asDouble(), 1e-9);
+    }
+
+    @Test
     void shouldExitTwoWithAClearMessageOnBadWind() {
         assertEquals(2, run("steady", "--wind", "-3"));
         assertTrue(err.toString().contains("wind: must be within 0..60 m/s"), err.toString());

@@ -89,11 +89,11 @@ public final class PreflightReport {
         sb.append(String.format(Locale.ROOT, "galebench preflight: step %d us, %.1f s of floor then %.1f s of loop%n", stepUs, seconds, seconds));
         sb.append("board: ").append(board).append('\n');
         sb.append("pinning: ").append(loop.pinning).append('\n');
-        sb.append(String.format(Locale.ROOT, "%-22s %14s %14s %14s%n", "", "floor (spin)", "loop", "loop rtt"));
+        sb.append(String.format(Locale.ROOT, "%-22s %14s %14s %14s%n", "", "floor lateness", "loop lateness", "loop rtt"));
         String[] names = {"p50", "p99", "p99.9", "p99.99", "max"};
         double[] ps = {50.0, 99.0, 99.9, 99.99, 100.0};
         for (int i = 0; i < names.length; i++) {
-            sb.append(String.format(Locale.ROOT, "%-22s %14.2f %14.2f %14.2f%n", "lateness " + names[i] + " us",
+            sb.append(String.format(Locale.ROOT, "%-22s %14.2f %14.2f %14.2f%n", names[i] + " us",
                     pct(floor.latenessNs(), ps[i]), pct(loop.latenessNs, ps[i]), pct(loop.roundTripNs, ps[i])));
         }
         sb.append(String.format(Locale.ROOT, "%-22s %14d %14d%n", "late > 1 step", floor.stalls(), loop.overruns));

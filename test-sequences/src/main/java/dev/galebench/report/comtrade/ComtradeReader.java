@@ -119,7 +119,11 @@ public final class ComtradeReader {
         final boolean[] status = new boolean[nD];
         final byte[] raw = new byte[recordBytes];
         final ByteBuffer rec = ByteBuffer.wrap(raw).order(ByteOrder.LITTLE_ENDIAN);
-        final String type = config.fileType;
+        final int type = switch (config.fileType) {
+            case "BINARY" -> 16;
+            case "BINARY32" -> 32;
+            default -> 0; // FLOAT32
+        };
         final TimeBase time = new TimeBase(config);
         try (InputStream in = new BufferedInputStream(Files.newInputStream(datPath), 1 << 16)) {
             for (long r = 0; r < count; r++) {
@@ -130,16 +134,14 @@ public final class ComtradeReader {
                 long n = rec.getInt() & 0xFFFF_FFFFL;
                 long stamp = rec.getInt() & 0xFFFF_FFFFL;
                 for (int k = 0; k < nA; k++) {
-                    switch (type) {
-                        case "BINARY" -> {
-                            short code = rec.getShort();
-                            values[k] = code == (short) 0x8000 ? Double.NaN : a[k] * code + b[k];
-                        }
-                        case "BINARY32" -> {
-                            int code = rec.getInt();
-                            values[k] = code == 0x8000_0000 ? Double.NaN : a[k] * code + b[k];
-                        }
-                        default -> values[k] = a[k] * rec.getFloat() + b[k];
+                    if (type == 16) {
+                        short code = rec.getShort();
+                        values[k] = code == (short) 0x8000 ? Double.NaN : a[k] * code + b[k];
+                    } else if (type == 32) {
+                        int code = rec.getInt();
+                        values[k] = code == 0x8000_0000 ? Double.NaN : a[k] * code + b[k];
+                    } else {
+                        values[k] = a[k] * rec.getFloat() + b[k];
                     }
                 }
                 for (int w = 0; w < words; w++) {

@@ -85,7 +85,7 @@ public final class DecimatedTraces {
         int recordBytes = reader.binaryRecordBytes();
         if (recordBytes > 0) {
             // never more records than are complete in the .dat
-            records = Math.min(records, Files.size(datPathOf(reader)) / recordBytes);
+            records = Math.min(records, Files.size(reader.datPath()) / recordBytes);
         }
         final long perBucket = Math.max(1, (records + bucketCount - 1) / bucketCount);
         final int channels = found.size();
@@ -177,10 +177,6 @@ public final class DecimatedTraces {
             out.add(builders[i].build(id, unit));
         }
         return out;
-    }
-
-    private static java.nio.file.Path datPathOf(ComtradeReader reader) {
-        return reader.datPath();
     }
 
     private static final class Builder {

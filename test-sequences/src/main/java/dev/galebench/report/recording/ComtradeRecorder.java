@@ -288,7 +288,12 @@ public final class ComtradeRecorder implements SampleConsumer {
 
     private void writeCfg() throws IOException {
         Files.write(cfgTempPath, cfgText().getBytes(StandardCharsets.US_ASCII));
-        Files.move(cfgTempPath, cfgPath, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        try {
+            Files.move(cfgTempPath, cfgPath, StandardCopyOption.REPLACE_EXISTING, StandardCopyOption.ATOMIC_MOVE);
+        } catch (java.nio.file.AtomicMoveNotSupportedException e) {
+            // a file system without atomic rename: a reader may, rarely, catch the .cfg half-replaced
+            Files.move(cfgTempPath, cfgPath, StandardCopyOption.REPLACE_EXISTING);
+        }
     }
 
     /** The .cfg as it would be written now (CR LF line ends). */

@@ -46,13 +46,21 @@ public final class CsvRecorder implements SampleConsumer {
      * @param keepEvery write every keepEvery-th sample (1 = all)
      */
     public CsvRecorder(Path file, List<String> signals, int keepEvery) {
+        this(file, signals, keepEvery, 1_000_000_000L);
+    }
+
+    /** As above with a shorter flush interval (tests). */
+    CsvRecorder(Path file, List<String> signals, int keepEvery, long flushIntervalNs) {
+        if (flushIntervalNs <= 0 || flushIntervalNs > 1_000_000_000L) {
+            throw new IllegalArgumentException("flush interval must be in (0, 1 s], got " + flushIntervalNs + " ns");
+        }
         if (keepEvery < 1) {
             throw new IllegalArgumentException("keepEvery must be >= 1, got " + keepEvery);
         }
         this.file = file;
         this.wanted = signals == null ? List.of() : List.copyOf(signals);
         this.keepEvery = keepEvery;
-        this.flushIntervalNs = 1_000_000_000L;
+        this.flushIntervalNs = flushIntervalNs;
     }
 
     @Override

@@ -1,6 +1,6 @@
 package dev.galebench.report.recording;
 
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import dev.galebench.rt.Sample;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;

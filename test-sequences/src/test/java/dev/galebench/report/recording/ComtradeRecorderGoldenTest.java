@@ -3,7 +3,8 @@ package dev.galebench.report.recording;
 import dev.galebench.plant.SensorView;
 import dev.galebench.report.comtrade.ComtradeConfig;
 import dev.galebench.report.comtrade.ComtradeReader;
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
+import dev.galebench.rt.Sample;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 import org.junit.jupiter.params.ParameterizedTest;
@@ -27,7 +28,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
  * Golden files per COMTRADE revision (write, compare with the reference, read back with the
- * independent reader, write again and byte-compare), plus the .cfg layout and .dat record
+ * independent reader, write the read-back data again and byte-compare), plus the .cfg layout and .dat record
  * layout checked field by field against IEEE C37.111 as summarised in REFERENCES.md 8a/8b.
  */
 class ComtradeRecorderGoldenTest {
@@ -129,11 +130,25 @@ class ComtradeRecorderGoldenTest {
         assertEquals(1, r.missingSampleCount(2));
         assertEquals(0, r.clampedSampleCount(0));
 
-        // write again: byte-identical
+        // write again what was read back: byte-identical to the golden files
         Path again = Files.createDirectory(dir.resolve("again"));
-        ComtradeRecorder r2 = record(again, revision);
-        assertArrayEquals(cfg, Files.readAllBytes(r2.cfgPath()));
-        assertArrayEquals(dat, Files.readAllBytes(r2.datPath()));
+        ComtradeSettings s = new ComtradeSettings("GALEBENCH", "golden", revision, 50.0, ZERO, 150_000L, 1.0,
+                fixedRanges(), digital(), ComtradeSettings.MAX_FLUSH_INTERVAL_NS);
+        ComtradeRecorder r2 = new ComtradeRecorder(again, "golden-" + revision, s);
+        r2.onStart(NAMES, UNITS, PERIOD_NS, 1);
+        Sample sample = new Sample(NAMES.length);
+        long firstPlantTimeNs = PERIOD_NS; // exchange 0 ends at plant time one period
+        ComtradeReader.open(r.cfgPath()).read((n, t, analog, status) -> {
+            sample.exchangeIndex = n - 1;
+            sample.plantTimeNs = firstPlantTimeNs + Math.round(t * 1e9);
+            System.arraycopy(analog, 0, sample.values, 0, 4);
+            sample.values[4] = status[0] ? 1 : 0;
+            sample.values[5] = (status[1] ? SensorView.TRIP_DC_OVERVOLTAGE : 0) | (status[2] ? SensorView.TRIP_GSC_OVERCURRENT : 0);
+            r2.onSample(sample);
+        });
+        r2.onEnd(0);
+        assertArrayEquals(cfg, Files.readAllBytes(r2.cfgPath()), "cfg written from the read-back data differs");
+        assertArrayEquals(dat, Files.readAllBytes(r2.datPath()), "dat written from the read-back data differs");
     }
 
     @Test

@@ -3,7 +3,7 @@ package dev.galebench.report.recording;
 import dev.galebench.report.comtrade.ComtradeConfig;
 import dev.galebench.report.comtrade.ComtradeReader;
 import dev.galebench.report.comtrade.DecimatedTraces;
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import dev.galebench.rt.Sample;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -174,5 +174,27 @@ class ComtradeRecorderStreamingTest {
         for (int i = 1; i < v.size(); i++) {
             assertTrue(v.timeS()[i] > v.timeS()[i - 1], "times not increasing at " + i);
         }
+    }
+
+    @Test
+    void shouldReadZoomWindowsAtFullResolutionInOnePass(@TempDir Path dir) throws IOException {
+        ComtradeRecorder r = new ComtradeRecorder(dir, "zoom", settings(ComtradeSettings.MAX_FLUSH_INTERVAL_NS));
+        r.onStart(NAMES, UNITS, PERIOD_NS, 1);
+        ReportFixtures.feed(r, NAMES, PERIOD_NS, 100_000, ComtradeRecorderStreamingTest::wave); // 5 s
+        r.onEnd(0);
+        List<DecimatedTraces.Trace> t = DecimatedTraces.readWindows(ComtradeReader.open(r.cfgPath()), List.of(
+                new DecimatedTraces.Window("v_term_a_v", 0.0, 5.0, 100),
+                new DecimatedTraces.Window("v_term_a_v", 2.0, 2.01, 1000),
+                new DecimatedTraces.Window("frt_active", 1.0, 2.0, 10),
+                new DecimatedTraces.Window("unknown", 0.0, 1.0, 10)));
+        assertTrue(t.get(0).size() <= 200);
+        // 10 ms at 50 us is 201 records (both ends included), each its own bucket: the samples themselves
+        assertEquals(201, t.get(1).size());
+        assertEquals(2.0, t.get(1).timeS()[0], 1e-9);
+        double tk = t.get(1).timeS()[100];
+        assertEquals(563.4 * Math.sin(2 * Math.PI * 50 * (tk + 50e-6)), t.get(1).value()[100], 0.013);
+        assertEquals("state", t.get(2).unit());
+        assertEquals(10, t.get(2).size()); // constant 0: one point per bucket
+        assertEquals(0, t.get(3).size());
     }
 }

@@ -1,6 +1,6 @@
 package dev.galebench.report.recording;
 
-import dev.galebench.report.support.ReportFixtures;
+import dev.galebench.testsupport.ReportFixtures;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
 
@@ -69,5 +69,21 @@ class CsvRecorderTest {
         s.append(' ');
         CsvRecorder.appendSeconds(s, 1_000_010_000L);
         assertEquals("600 1.00001", s.toString());
+    }
+
+    @Test
+    void shouldLeaveEveryLineUpToTheLastFlushWhenTheRunIsKilled(@TempDir Path dir) throws Exception {
+        CsvRecorder r = new CsvRecorder(dir.resolve("killed.csv"), null, 1, 20_000_000L);
+        r.onStart(NAMES, UNITS, 50_000L, 1);
+        ReportFixtures.feed(r, NAMES, 50_000L, 100, (k, t, v) -> v[0] = k);
+        Thread.sleep(40); // longer than the 20 ms flush interval
+        dev.galebench.rt.Sample s = new dev.galebench.rt.Sample(NAMES.length);
+        s.exchangeIndex = 100;
+        s.plantTimeNs = 101 * 50_000L;
+        r.onSample(s); // finds the interval passed: flushes
+        // no onEnd: the process "died" here
+        List<String> lines = Files.readAllLines(dir.resolve("killed.csv"));
+        assertEquals(102, lines.size());
+        assertEquals("100,0.00505,0.0,0.0,0.0", lines.get(101));
     }
 }

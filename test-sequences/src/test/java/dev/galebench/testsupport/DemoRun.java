@@ -1,4 +1,4 @@
-package dev.galebench.report.support;
+package dev.galebench.testsupport;
 
 import dev.galebench.plant.SensorView;
 import dev.galebench.report.CheckOutcome;
@@ -56,6 +56,9 @@ public final class DemoRun {
         for (int ph = 0; ph < 3; ph++) {
             v[4 + ph] = amp * Math.sin(2 * Math.PI * 50 * t + ang - ph * 2 * Math.PI / 3);
         }
+        if (t >= 1.0 && t < 1.0005) {
+            v[4] = 8400.0; // a short spike beyond the recording range of i_grid_a_a (+-7800 A): clamped and counted
+        }
         v[7] = t >= 1.005 && t < 1.35 ? 1 : 0;
         v[8] = 0;
         v[9] = SensorView.STATUS_BREAKER_CLOSED | (t > 1.02 && t < 1.05 ? SensorView.STATUS_CHOPPER_ON : 0);
@@ -85,7 +88,7 @@ public final class DemoRun {
 
     /** Writes the recording and every end-of-run file into {@code dir}. */
     public static void writeFolder(Path dir, double seconds) throws IOException {
-        record(dir, seconds);
-        dev.galebench.report.RunReports.writeAll(dir, input(seconds).build());
+        ComtradeRecorder r = record(dir, seconds);
+        dev.galebench.report.RunReports.writeAll(dir, input(seconds).recording(dev.galebench.report.RecordingStats.of(r)).build());
     }
 }

@@ -1,4 +1,4 @@
-package dev.galebench.report.support;
+package dev.galebench.testsupport;
 
 import dev.galebench.report.CheckOutcome;
 import dev.galebench.report.RunReportInput;

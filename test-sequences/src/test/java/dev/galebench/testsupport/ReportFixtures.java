@@ -1,4 +1,4 @@
-package dev.galebench.report.support;
+package dev.galebench.testsupport;
 
 import dev.galebench.plant.TurbineParameters;
 import dev.galebench.rt.Sample;

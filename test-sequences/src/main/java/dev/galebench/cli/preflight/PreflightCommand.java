@@ -1,0 +1,184 @@
+package dev.galebench.cli.preflight;
+
+import dev.galebench.board.BoardController;
+import dev.galebench.board.BoardControllers;
+import dev.galebench.board.VirtualBoard;
+import dev.galebench.link.BoardLinks;
+import dev.galebench.link.LinkOptions;
+import dev.galebench.plant.SteadyState;
+import dev.galebench.plant.TurbineFile;
+import dev.galebench.plant.TurbineParameters;
+import dev.galebench.plant.TurbinePlant;
+import dev.galebench.rt.BoardLink;
+import dev.galebench.rt.LoopConfig;
+import dev.galebench.rt.LoopResult;
+import dev.galebench.rt.RealTimeLoop;
+import dev.galebench.rt.Sample;
+import dev.galebench.rt.SampleConsumer;
+import dev.galebench.rt.SampleLayout;
+import dev.galebench.rt.SpinFloor;
+import dev.galebench.wire.WireProfile;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+import picocli.CommandLine.Spec;
+import picocli.CommandLine.Model.CommandSpec;
+
+import java.io.PrintWriter;
+import java.net.InetAddress;
+import java.net.InetSocketAddress;
+import java.nio.file.Path;
+import java.util.List;
+import java.util.concurrent.Callable;
+
+/**
+ * {@code galebench preflight}: is this machine punctual enough for a step of N us? Measures the
+ * busy-spin floor (a thread spinning to t0 + k h with nothing else to do), then runs the real
+ * loop for the same time with the default turbine and a board, and prints both side by side
+ * with a verdict judged as ratios to the floor ({@link PreflightVerdict}).
+ *
+ * <p>Default board: the virtual board started inside this JVM on its own thread, answering over
+ * a real UDP socket pair on loopback (127.0.0.1). That exercises the same link code, socket
+ * path and kernel round trip as a board on the bench, while needing nothing else running; an
+ * in-process link would hide the link cost, a separate process would need a launcher. The board
+ * thread blocks in receive and never spins, so on a two-core machine it leaves the other core
+ * to the loop. {@code --board URI} measures against a real board instead.
+ *
+ * <p>Exit codes: 0 sustainable, 1 not sustainable, 2 bad input.
+ */
+@Command(name = "preflight", mixinStandardHelpOptions = true,
+        description = {"Measure this machine's busy-spin timing floor, then the real-time loop with a board,",
+                "and judge whether the step is sustainable (ratios to the floor measured in the same run)."})
+public final class PreflightCommand implements Callable<Integer> {
+    @Spec
+    CommandSpec spec;
+
+    @Option(names = "--seconds", paramLabel = "S", defaultValue = "10",
+            description = "Seconds of floor measurement and again of loop run (default: ${DEFAULT-VALUE}).")
+    double seconds;
+
+    @Option(names = "--step-us", paramLabel = "N", defaultValue = "50",
+            description = "Plant step and exchange period in microseconds (default: ${DEFAULT-VALUE}).")
+    long stepUs;
+
+    @Option(names = "--board", paramLabel = "URI",
+            description = "Board link URI (udp://HOST:PORT or serial:DEVICE[@BAUD]); default: the virtual board in this JVM over UDP loopback.")
+    String boardUri;
+
+    @Option(names = "--controller", paramLabel = "NAME",
+            description = "Controller of the built-in virtual board (default: the reference controller if available).")
+    String controllerName;
+
+    @Option(names = "--pin-cpu", paramLabel = "CPU", defaultValue = "-1",
+            description = "Pin the spinning threads to this CPU (Linux, taskset); -1 = no pinning (default).")
+    int pinCpu;
+
+    @Option(names = "--hlog", paramLabel = "FILE", description = "Also write the loop's timing interval log here.")
+    Path hlog;
+
+    @Option(names = "--json", description = "Print JSON instead of the table.")
+    boolean json;
+
+    @Override
+    public Integer call() throws Exception {
+        final PrintWriter err = spec.commandLine().getErr();
+        final PrintWriter out = spec.commandLine().getOut();
+        if (!(seconds > 0.0 && seconds <= 3600.0)) {
+            err.println("galebench preflight: --seconds " + seconds + " is out of range (0, 3600]");
+            return 2;
+        }
+        if (stepUs < 1 || stepUs > 1_000_000) {
+            err.println("galebench preflight: --step-us " + stepUs + " is out of range [1, 1000000]");
+            return 2;
+        }
+        if (pinCpu < -1) {
+            err.println("galebench preflight: --pin-cpu " + pinCpu + " must be >= -1");
+            return 2;
+        }
+        final long stepNs = stepUs * 1_000;
+        final long durationNs = (long) (seconds * 1e9);
+        if (durationNs < stepNs) {
+            err.println("galebench preflight: --seconds " + seconds + " is shorter than one step");
+            return 2;
+        }
+        final TurbineParameters params = TurbineFile.defaults();
+        BoardLink link;
+        VirtualBoard board = null;
+        Thread boardThread = null;
+        String boardText;
+        try {
+            if (boardUri != null) {
+                link = BoardLinks.open(boardUri, LinkOptions.defaults());
+                boardText = boardUri;
+            } else {
+                final String name = controllerName != null ? controllerName : defaultController();
+                final BoardController controller = BoardControllers.create(name);
+                board = VirtualBoard.udp(new InetSocketAddress(InetAddress.getLoopbackAddress(), 0),
+                        WireProfile.FULL, controller, stepNs * 1e-9);
+                final VirtualBoard b = board;
+                boardThread = new Thread(b::run, "galebench-board");
+                boardThread.setDaemon(true);
+                boardThread.start();
+                link = BoardLinks.open("udp://127.0.0.1:" + board.udpPort(), LinkOptions.defaults());
+                boardText = "virtual board in this JVM, " + board.describe() + ", controller " + name;
+            }
+        } catch (IllegalArgumentException e) {
+            if (board != null) {
+                board.close();
+            }
+            err.println("galebench preflight: " + e.getMessage());
+            return 2;
+        }
+        try {
+            final SpinFloor.Result floor = SpinFloor.measure(stepNs, durationNs, pinCpu);
+            final TurbinePlant plant = new TurbinePlant(params, stepNs);
+            plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
+            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
+                    .durationSteps(durationNs / stepNs).realTime(true).pinCpu(pinCpu)
+                    .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
+            final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, null, List.of(new Discard()),
+                    SampleLayout.of(plant));
+            final LoopResult result = loop.run();
+            if (hlog != null) {
+                result.writeTimingLog(hlog);
+            }
+            final PreflightVerdict verdict = PreflightVerdict.judge(floor, result);
+            final PreflightReport report = new PreflightReport(stepUs, seconds, boardText, floor, result, verdict);
+            out.print(json ? report.json() + System.lineSeparator() : report.text());
+            out.flush();
+            return verdict.sustainable() ? 0 : 1;
+        } finally {
+            link.close();
+            if (board != null) {
+                board.close();
+                boardThread.join(2000);
+            }
+        }
+    }
+
+    private static String defaultController() {
+        for (String n : BoardControllers.names().split("[,\\s]+")) {
+            if (n.equals("reference")) {
+                return n;
+            }
+        }
+        return "hold";
+    }
+
+    /** A consumer that only receives, so the run pays the ring cost a real run pays. */
+    static final class Discard implements SampleConsumer {
+        long received;
+
+        @Override
+        public void onStart(String[] signalNames, String[] signalUnits, long stepPeriodNs, int exchangeEverySteps) {
+        }
+
+        @Override
+        public void onSample(Sample sample) {
+            received++;
+        }
+
+        @Override
+        public void onEnd(long samplesMissed) {
+        }
+    }
+}

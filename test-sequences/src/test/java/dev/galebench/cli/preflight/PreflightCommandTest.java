@@ -1,0 +1,83 @@
+package dev.galebench.cli.preflight;
+
+import com.fasterxml.jackson.databind.JsonNode;
+import com.fasterxml.jackson.databind.ObjectMapper;
+import dev.galebench.cli.GalebenchCommand;
+import org.HdrHistogram.HistogramLogReader;
+import org.junit.jupiter.api.Test;
+import org.junit.jupiter.api.io.TempDir;
+import picocli.CommandLine;
+
+import java.io.PrintWriter;
+import java.io.StringWriter;
+import java.nio.file.Path;
+
+import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertTrue;
+
+/**
+ * The preflight command end to end: spin floor, then the real loop with the default turbine and
+ * the virtual board answering over real UDP sockets on loopback. Asserts the shape and the
+ * counts, and that the exit code agrees with the verdict; never the latency numbers themselves.
+ */
+class PreflightCommandTest {
+
+    private static int run(StringWriter out, StringWriter err, String... args) {
+        CommandLine cl = GalebenchCommand.commandLine();
+        cl.setOut(new PrintWriter(out, true));
+        cl.setErr(new PrintWriter(err, true));
+        return cl.execute(args);
+    }
+
+    @Test
+    void shouldPrintFloorAndLoopAsJsonAndExitByVerdict(@TempDir Path dir) throws Exception {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        Path hlog = dir.resolve("timing.hlog");
+        int code = run(out, err, "preflight", "--seconds", "0.4", "--step-us", "50", "--json", "--hlog", hlog.toString());
+        JsonNode j = new ObjectMapper().readTree(out.toString());
+        assertEquals(50, j.get("step_us").asLong());
+        assertEquals(0.4, j.get("seconds").asDouble(), 1e-12);
+        for (String p : new String[] {"p50", "p99", "p999", "p9999", "max"}) {
+            assertTrue(j.get("floor").get("lateness_us").has(p), p);
+            assertTrue(j.get("loop").get("lateness_us").has(p), p);
+            assertTrue(j.get("loop").get("rtt_us").has(p), p);
+        }
+        assertTrue(j.get("floor").get("stalls").asLong() >= 0);
+        assertEquals(8000, j.get("floor").get("ticks").asLong());
+        assertEquals(8000, j.get("loop").get("exchanges").asLong());
+        assertTrue(j.get("loop").get("overruns").asLong() >= 0);
+        assertTrue(j.get("loop").get("replies_applied").asLong() > 0, "the virtual board answered over UDP");
+        assertTrue(j.get("loop").get("rtt_us").get("max").asDouble() > 0.0);
+        assertEquals(j.get("sustainable").asBoolean() ? 0 : 1, code, out + " " + err);
+        try (HistogramLogReader r = new HistogramLogReader(hlog.toFile())) {
+            assertTrue(r.nextIntervalHistogram() != null, "timing log written");
+        }
+    }
+
+    @Test
+    void shouldPrintTableWithVerdict() {
+        StringWriter out = new StringWriter();
+        int code = run(out, new StringWriter(), "preflight", "--seconds", "0.2");
+        String text = out.toString();
+        assertTrue(text.contains("floor lateness") && text.contains("loop rtt"), text);
+        assertTrue(text.contains(code == 0 ? "verdict: SUSTAINABLE" : "verdict: NOT SUSTAINABLE"), text);
+    }
+
+    @Test
+    void shouldRejectBadInputWithExitTwo() {
+        StringWriter err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--step-us", "0"));
+        assertTrue(err.toString().contains("--step-us"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "-1"));
+        assertTrue(err.toString().contains("--seconds"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "0.1", "--board", "ftp://nowhere"));
+        assertTrue(err.toString().contains("ftp://nowhere"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "0.1", "--controller", "nosuch"));
+        assertTrue(err.toString().contains("nosuch"), err.toString());
+        assertEquals(2, run(new StringWriter(), new StringWriter(), "preflight", "--seconds", "abc"));
+    }
+}
