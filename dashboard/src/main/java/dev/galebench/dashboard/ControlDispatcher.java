@@ -108,7 +108,7 @@ final class ControlDispatcher implements AutoCloseable {
                 r = ControlResult.refused("bench gave no answer");
             }
         }
-        hub.log("control", req.describe + " -> " + r.message(), r.accepted());
+        hub.log("control", r.message().startsWith(req.describe) ? r.message() : req.describe + " -> " + r.message(), r.accepted());
         ack(ch, id, r.accepted(), r.message());
     }
 
