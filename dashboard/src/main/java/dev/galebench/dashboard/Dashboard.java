@@ -125,7 +125,15 @@ public final class Dashboard implements AutoCloseable {
 
     /** A sequence began; clears the verdict list of every console. */
     public void sequenceStarted(String sequence, String runId) {
-        hub.sequenceStarted(sequence, runId);
+        hub.sequenceStarted(sequence, runId, List.of());
+    }
+
+    /**
+     * A sequence began whose checks are {@code checkNames}: consoles list them as pending until
+     * their verdicts arrive (checks that judge the whole run decide when it ends).
+     */
+    public void sequenceStarted(String sequence, String runId, List<String> checkNames) {
+        hub.sequenceStarted(sequence, runId, checkNames);
     }
 
     /** A check's verdict fell at plant time {@code plantTimeS} (NaN if not known). */
