@@ -179,6 +179,11 @@ public final class Dashboard implements AutoCloseable {
         return hub.slowViewerSkips();
     }
 
+    /** CPU time of the feed during the last complete stream, ns (-1 before one ended). */
+    public long feedCpuNs() {
+        return feed.lastStreamCpuNs();
+    }
+
     /** Number of the newest data batch published (0 before the first). */
     public long lastBatch() {
         return hub.lastSeq();

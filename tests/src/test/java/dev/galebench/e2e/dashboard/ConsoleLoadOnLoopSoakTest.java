@@ -52,6 +52,7 @@ class ConsoleLoadOnLoopSoakTest {
         ClassLoader.getSystemClassLoader().setPackageAssertionStatus("com.lmax.disruptor", false);
     }
 
+    private final StringBuilder consoleCpu = new StringBuilder();
     private static final long STEP_NS = Math.round(Double.parseDouble(System.getProperty("galebench.load.stepUs", "50")) * 1000);
 
     @Test
@@ -83,6 +84,7 @@ class ConsoleLoadOnLoopSoakTest {
                 p99Without, p99With, p99With / p99Without));
         report.append(String.format(Locale.ROOT, "median p99.9 without %.2f us, with %.2f us, ratio %.3f%n",
                 p999Without, p999With, p999With / p999Without));
+        report.append(consoleCpu);
         Path out = Path.of("target", "console-load.txt");
         Files.createDirectories(out.getParent());
         Files.writeString(out, report);
@@ -96,7 +98,18 @@ class ConsoleLoadOnLoopSoakTest {
             one.driver().get(d.url());
             two.driver().get(d.url());
             awaitViewers(d, 2);
+            Thread netty = null;
+            for (Thread t : Thread.getAllStackTraces().keySet()) {
+                if (t.getName().startsWith("galebench-dashboard-") && !t.getName().endsWith("control")) {
+                    netty = t;
+                }
+            }
+            java.lang.management.ThreadMXBean mx = java.lang.management.ManagementFactory.getThreadMXBean();
+            long nettyCpu0 = netty == null ? 0 : mx.getThreadCpuTime(netty.getId());
             double[] r = runLoop(seconds, d);
+            long nettyCpuNs = netty == null ? -1 : mx.getThreadCpuTime(netty.getId()) - nettyCpu0;
+            consoleCpu.append(String.format(Locale.ROOT, "console CPU in a %d s run: feed thread %.1f ms, network thread %.1f ms%n",
+                    seconds, d.feedCpuNs() / 1e6, nettyCpuNs / 1e6));
             for (HeadlessChromium c : List.of(one, two)) {
                 // the page drew the stream: the lateness panel has a plot and a p99.9 value
                 new WebDriverWait(c.driver(), Duration.ofSeconds(10)).until(drv ->
