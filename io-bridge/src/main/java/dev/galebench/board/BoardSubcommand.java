@@ -33,7 +33,7 @@ public final class BoardSubcommand implements Callable<Integer> {
     String profile;
 
     @Option(names = "--controller", paramLabel = "NAME", defaultValue = "hold",
-            description = "Control law the board runs (default: ${DEFAULT-VALUE}; known: hold).")
+            description = "Control law the board runs (default: ${DEFAULT-VALUE}; known: hold, reference).")
     String controller;
 
     @Option(names = "--period-us", paramLabel = "US", defaultValue = "50",

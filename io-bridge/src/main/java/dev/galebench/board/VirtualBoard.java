@@ -63,6 +63,8 @@ public final class VirtualBoard implements AutoCloseable {
         DatagramChannel ch = null;
         try {
             ch = DatagramChannel.open(StandardProtocolFamily.INET);
+            // room for a burst of frames while this process is descheduled (the kernel caps it at net.core.rmem_max)
+            ch.setOption(java.net.StandardSocketOptions.SO_RCVBUF, 1 << 20);
             ch.bind(bind);
             ch.configureBlocking(true);
             final InetSocketAddress local = (InetSocketAddress) ch.getLocalAddress();

@@ -16,8 +16,8 @@ import java.nio.ByteBuffer;
  * and validating replies, the wire-level counters and the fault-injection delay line. A
  * transport only moves bytes ({@link #transmit}, {@link #receive}).
  *
- * <p>Cost per exchange without faults: one encode (~0.2 us for FULL, CRC included), one
- * decode of each reply. With faults active each reply is also copied once into the delay
+ * <p>Cost per exchange without faults: one encode and one decode of each reply, about 0.15 us
+ * for a FULL measurement frame encoded and decoded, CRC included (JMH, WireCodecBenchmark). With faults active each reply is also copied once into the delay
  * line (64 slots of 128 bytes, allocated when the link opens).
  */
 abstract class FrameLink implements BoardLink {

@@ -13,7 +13,7 @@ import dev.galebench.wire.WireProfile;
  *   <tr><td>faults</td><td></td><td>none</td><td>fault injection on the reply path ({@link LinkFaults})</td></tr>
  *   <tr><td>localHost</td><td></td><td>127.0.0.1 for a loopback board, else 0.0.0.0</td><td>UDP: local address to bind</td></tr>
  *   <tr><td>localPort</td><td>port</td><td>0 (any)</td><td>UDP: local port to bind</td></tr>
- *   <tr><td>socketBufferBytes</td><td>bytes</td><td>65536</td><td>UDP: SO_SNDBUF and SO_RCVBUF</td></tr>
+ *   <tr><td>socketBufferBytes</td><td>bytes</td><td>1048576</td><td>UDP: SO_SNDBUF and SO_RCVBUF requested (the kernel caps them at net.core.wmem_max / rmem_max): room for replies that pile up while the loop is stalled</td></tr>
  *   <tr><td>defaultBaud</td><td>bit/s</td><td>921600</td><td>serial: baud when the URI has no {@code @BAUD}</td></tr>
  * </table>
  */
@@ -22,7 +22,7 @@ public final class LinkOptions {
     LinkFaults faults = new LinkFaults();
     String localHost;
     int localPort;
-    int socketBufferBytes = 65536;
+    int socketBufferBytes = 1 << 20;
     int defaultBaud = 921600;
 
     /** Defaults: FULL profile, no faults. */

@@ -16,13 +16,20 @@ public final class SerialPorts {
      * lacks. Throws {@link UncheckedIOException} naming the device if it cannot be opened.
      */
     public static SerialPort open(String device, int baud, int timeoutMode, int readTimeoutMs) {
-        final SerialPort p = SerialPort.getCommPort(device);
+        final SerialPort p;
+        try {
+            p = SerialPort.getCommPort(device);
+        } catch (RuntimeException e) { // jSerialComm's SerialPortInvalidPortException: no such device
+            final String message = "cannot open serial port " + device + ": " + e.getMessage();
+            throw new UncheckedIOException(message, new IOException(message, e));
+        }
         p.setComPortParameters(baud, 8, SerialPort.ONE_STOP_BIT, SerialPort.NO_PARITY);
         p.setFlowControl(SerialPort.FLOW_CONTROL_DISABLED);
         p.setComPortTimeouts(timeoutMode, readTimeoutMs, 0);
         if (!p.openPort()) {
-            throw new UncheckedIOException(new IOException("cannot open serial port " + device
-                    + " (error " + p.getLastErrorCode() + " at location " + p.getLastErrorLocation() + ")"));
+            final String message = "cannot open serial port " + device
+                    + " (error " + p.getLastErrorCode() + " at location " + p.getLastErrorLocation() + ")";
+            throw new UncheckedIOException(message, new IOException(message));
         }
         p.flushIOBuffers();
         return p;

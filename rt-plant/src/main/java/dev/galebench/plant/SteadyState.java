@@ -255,7 +255,7 @@ public final class SteadyState {
                 + " pu at " + windMPerS + " m/s and " + gridVoltagePu + " pu grid voltage");
     }
 
-    /** Aerodynamic torque with the plant's guards (see {@link TurbinePlant}): lambda floored at 1, no reverse drive at rest. */
+    /** Aerodynamic torque with the plant's guards (see {@link TurbinePlant#aeroTorque}). */
     static final class Aero {
         private final CpSurface cps;
         private final double torqueFactor; // 1/2 rho pi R^3
@@ -268,13 +268,7 @@ public final class SteadyState {
         }
 
         double torque(double rotorSpeedRadPerS, double pitchRad, double windMPerS) {
-            if (!(windMPerS > 0.1)) {
-                return 0.0;
-            }
-            final double lambda = rotorSpeedRadPerS * radiusM / windMPerS;
-            final double le = lambda > 1.0 ? lambda : 1.0;
-            final double t = torqueFactor * windMPerS * windMPerS * cps.cp(le, pitchRad * (180.0 / Math.PI)) / le;
-            return (rotorSpeedRadPerS <= 0.0 && t < 0.0) ? 0.0 : t;
+            return TurbinePlant.aeroTorque(cps, torqueFactor, radiusM, rotorSpeedRadPerS, pitchRad, windMPerS);
         }
     }
 }

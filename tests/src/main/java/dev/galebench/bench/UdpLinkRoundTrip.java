@@ -160,7 +160,7 @@ public final class UdpLinkRoundTrip {
     }
 
     private static void compile(Path kit, Path out, String main) throws IOException, InterruptedException {
-        final List<String> cmd = new ArrayList<>(List.of("gcc", "-std=c99", "-Wall", "-Wextra", "-Werror", "-O2",
+        final List<String> cmd = new ArrayList<>(List.of("gcc", "-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic", "-Wconversion", "-Wshadow", "-O2",
                 "-I" + kit.resolve("include"), "-o", out.toString(), kit.resolve(main).toString(),
                 kit.resolve("src/gb_wire.c").toString(), "-lm"));
         final Process p = new ProcessBuilder(cmd).inheritIO().start();

@@ -429,7 +429,7 @@ public final class SvgLinePlot {
         }
         double mag = Math.pow(10, Math.floor(Math.log10(raw)));
         double n = raw / mag;
-        double m = n < 1.5 ? 1 : n < 3 ? 2 : n < 7 ? 5 : 10;
+        double m = n < 1.5 ? 1 : n < 2.25 ? 2 : n < 3.5 ? 2.5 : n < 7.5 ? 5 : 10;
         return m * mag;
     }
 
@@ -449,8 +449,15 @@ public final class SvgLinePlot {
         }
         double sv = v / div;
         double sstep = step / div;
-        int decimals = Math.max(0, (int) Math.ceil(-Math.log10(sstep) - 1e-9));
-        decimals = Math.min(decimals, 9);
+        // as many decimals as the step needs: 0.25 -> 2, 2.5 -> 1, 500 -> 0
+        int decimals = 0;
+        while (decimals < 9) {
+            double scaled = sstep * Math.pow(10, decimals);
+            if (Math.abs(scaled - Math.rint(scaled)) < 1e-6 * Math.max(1.0, scaled)) {
+                break;
+            }
+            decimals++;
+        }
         String s = String.format(java.util.Locale.ROOT, "%." + decimals + "f", sv);
         if (s.startsWith("-") && Double.parseDouble(s) == 0) {
             s = s.substring(1);

@@ -95,6 +95,9 @@ class SvgLinePlotTest {
         assertEquals("0.25", SvgLinePlot.formatTick(0.25, 0.05, 1));
         assertEquals("0.0", SvgLinePlot.formatTick(-1e-17, 0.5, 1)); // never "-0.0"
         assertEquals("-20k", SvgLinePlot.formatTick(-2e4, 1e4, 3e4));
+        assertEquals(2500.0, SvgLinePlot.niceStep(3000.0));
+        assertEquals("7.5k", SvgLinePlot.formatTick(7500, 2500, 12000));
+        assertEquals("0.3", SvgLinePlot.formatTick(0.30000000000000004, 0.1, 1));
         assertThrows(IllegalArgumentException.class, () -> new SvgLinePlot(10, 10));
     }
 

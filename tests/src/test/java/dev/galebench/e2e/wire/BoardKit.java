@@ -18,7 +18,7 @@ import java.util.concurrent.TimeUnit;
  * firmware build would use, once per test JVM, and runs its programs.
  */
 final class BoardKit {
-    static final String[] FLAGS = {"-std=c99", "-Wall", "-Wextra", "-Werror", "-O2"};
+    static final String[] FLAGS = {"-std=c99", "-Wall", "-Wextra", "-Werror", "-pedantic", "-Wconversion", "-Wshadow", "-O2"};
     private static Path built;
     private static String compilerOutput = "";
 

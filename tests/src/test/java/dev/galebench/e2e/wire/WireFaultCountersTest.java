@@ -183,6 +183,64 @@ class WireFaultCountersTest {
         }
     }
 
+    @Test
+    void shouldAccountForEveryFuzzedDatagramInTheLinkCounters() throws Exception {
+        final java.util.SplittableRandom random = new java.util.SplittableRandom(99);
+        try (DatagramChannel rawBoard = DatagramChannel.open().bind(new InetSocketAddress("127.0.0.1", 0));
+             BoardLink link = BoardLinks.open("udp://127.0.0.1:" + ((InetSocketAddress) rawBoard.getLocalAddress()).getPort(),
+                     LinkOptions.defaults())) {
+            final BoardCommand out = new BoardCommand();
+            final long lastSent = 1000;
+            assertTrue(link.send(lastSent, SensorViews.sample(0)));
+            final SocketAddress plant = rawBoard.receive(ByteBuffer.allocate(2048));
+            final LinkCounters c = link.counters();
+            final int fed = 50_000;
+            long replies = 0;
+            for (int i = 0; i < fed; i++) {
+                final WireProfile profile = random.nextBoolean() ? WireProfile.FULL : WireProfile.COMPACT;
+                byte[] d = validReply(profile, random.nextLong(lastSent + 3));
+                switch (random.nextInt(5)) {
+                    case 0:
+                        d[random.nextInt(d.length)] ^= (byte) (1 << random.nextInt(8));
+                        break;
+                    case 1:
+                        d = Arrays.copyOf(d, random.nextInt(1, 300));
+                        break;
+                    case 2:
+                        d[4 + random.nextInt(d.length - 8)] = (byte) random.nextInt(256);
+                        withCrc(d);
+                        break;
+                    default:
+                        break;
+                }
+                rawBoard.send(ByteBuffer.wrap(d), plant);
+                if (i % 64 == 63) {
+                    // pace: let the link drain so the kernel never drops a datagram
+                    final long target = i + 1;
+                    final long deadline = System.nanoTime() + WAIT_NS;
+                    while (c.repliesAccepted + c.crcErrors + c.malformedFrames + c.invalidReferences < target
+                            && System.nanoTime() < deadline) {
+                        if (link.poll(out) == BoardLink.POLL_REPLY) {
+                            replies++;
+                        }
+                    }
+                }
+            }
+            final long deadline = System.nanoTime() + WAIT_NS;
+            while (c.repliesAccepted + c.crcErrors + c.malformedFrames + c.invalidReferences < fed && System.nanoTime() < deadline) {
+                if (link.poll(out) == BoardLink.POLL_REPLY) {
+                    replies++;
+                }
+            }
+            assertEquals(BoardLink.POLL_EMPTY, link.poll(out));
+            assertEquals(fed, c.repliesAccepted + c.crcErrors + c.malformedFrames + c.invalidReferences,
+                    "accepted + every rejection counter = datagrams fed");
+            assertEquals(replies, c.repliesAccepted, "POLL_REPLY exactly for the accepted ones");
+            assertTrue(c.crcErrors > 1000 && c.malformedFrames > 1000 && c.repliesAccepted > 10_000,
+                    "each outcome occurred: " + c.repliesAccepted + " / " + c.crcErrors + " / " + c.malformedFrames);
+        }
+    }
+
     private static void writeFramed(FileOutputStream out, byte[] frame) throws IOException {
         final byte[] enc = new byte[Cobs.maxEncodedLength(frame.length) + 1];
         final int n = Cobs.encode(frame, 0, frame.length, enc, 0);
