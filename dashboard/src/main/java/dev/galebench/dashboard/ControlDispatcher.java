@@ -50,6 +50,10 @@ final class ControlDispatcher implements AutoCloseable {
         this.bench = b;
     }
 
+    BenchControl bench() {
+        return bench;
+    }
+
     /** Handles one text message from a socket whose role is {@code role}. */
     void onMessage(Channel ch, Access.Role role, String text) {
         JsonNode m;

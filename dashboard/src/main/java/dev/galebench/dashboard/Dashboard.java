@@ -112,6 +112,11 @@ public final class Dashboard implements AutoCloseable {
         refreshBench(bench);
     }
 
+    /** The bench the console's controls go to now (null: none). */
+    public BenchControl currentBench() {
+        return dispatcher.bench();
+    }
+
     /** Re-reads the sequence list and control capabilities from {@code bench}. */
     public void refreshBench(BenchControl bench) {
         if (bench != null) {
