@@ -11,10 +11,14 @@ import dev.galebench.report.CheckOutcome;
  * {@code -tolLowPu <= i_q - expected <= tolHighPu}, with
  * {@code expected = i_q,pre + k * max(0, |dU| - deadband) * sign(dU)}, clipped to
  * {@code +/- maxPu}, where {@code dU = U_pre - U} (positive in a dip: capacitive injection).
+ *
+ * <p>Currents are judged in pu of the grid code's rated current I_N: the current signal is
+ * divided by {@code ratedCurrentPu}, I_N expressed in the signal's own pu (1 when the signal is
+ * already in pu of I_N). Tolerances and the limit are in pu of I_N.
  */
 public final class ReactiveCurrentCheck extends StreamingCheck {
     private final String voltageSignal, currentSignal;
-    private final double atS, untilS, k, delayS, tolLowPu, tolHighPu, deadbandPu, maxPu, preS;
+    private final double atS, untilS, k, delayS, tolLowPu, tolHighPu, deadbandPu, maxPu, preS, ratedCurrentPu;
     private int vSlot, iSlot;
     private double sumV, sumI;
     private long preCount, count;
@@ -25,7 +29,7 @@ public final class ReactiveCurrentCheck extends StreamingCheck {
 
     public ReactiveCurrentCheck(String name, String voltageSignal, String currentSignal, double atS, double untilS,
                                 double k, double delayS, double tolLowPu, double tolHighPu, double deadbandPu,
-                                double maxPu, double preS) {
+                                double maxPu, double preS, double ratedCurrentPu) {
         super(name, "reactive_current");
         this.voltageSignal = voltageSignal;
         this.currentSignal = currentSignal;
@@ -38,6 +42,7 @@ public final class ReactiveCurrentCheck extends StreamingCheck {
         this.deadbandPu = deadbandPu;
         this.maxPu = maxPu;
         this.preS = preS;
+        this.ratedCurrentPu = ratedCurrentPu;
     }
 
     @Override
@@ -63,7 +68,7 @@ public final class ReactiveCurrentCheck extends StreamingCheck {
     public void onSample(double timeS, double[] values) {
         if (timeS >= atS - preS && timeS < atS) {
             sumV += values[vSlot];
-            sumI += values[iSlot];
+            sumI += values[iSlot] / ratedCurrentPu;
             preCount++;
             return;
         }
@@ -72,7 +77,7 @@ public final class ReactiveCurrentCheck extends StreamingCheck {
         }
         final double vPre = sumV / preCount, iPre = sumI / preCount;
         final double exp = expected(values[vSlot], vPre, iPre);
-        final double iq = values[iSlot];
+        final double iq = values[iSlot] / ratedCurrentPu;
         final double err = iq - exp;
         count++;
         sumExpected += exp;
@@ -95,7 +100,8 @@ public final class ReactiveCurrentCheck extends StreamingCheck {
         final double from = atS + delayS;
         String required = currentSignal + " within -" + Fmt.number(tolLowPu) + "/+" + Fmt.number(tolHighPu)
                 + " pu of k*dU (k = " + Fmt.number(k) + (deadbandPu > 0 ? ", dead band " + Fmt.number(deadbandPu) + " pu" : "")
-                + ", limit " + Fmt.number(maxPu) + " pu) from " + Fmt.duration(delayS) + " after " + Fmt.time(atS)
+                + ", limit " + Fmt.number(maxPu) + " pu" + (ratedCurrentPu != 1.0 ? ", pu of I_N = "
+                + Fmt.number(ratedCurrentPu) + " pu of the signal" : "") + ") from " + Fmt.duration(delayS) + " after " + Fmt.time(atS)
                 + " to " + Fmt.time(untilS);
         if (preCount == 0 || count == 0) {
             return outcome(false, "no samples", required, preCount == 0 ? "no pre-fault samples before "

@@ -7,10 +7,15 @@ import dev.galebench.report.CheckOutcome;
  * later than {@code byS} and stays inside until {@code toS}. The settling time is measured as
  * the common definition (VDE-AR-N 4110 "Einschwingzeit", IEC 61400-21-1 usage, from memory):
  * from {@code afterS} to the start of the last in-band stretch that lasts to the window end.
+ * {@code target} NaN means "back to where it was": the mean of the signal over
+ * {@code [afterS - preS, afterS)}.
  */
 public final class SettleCheck extends StreamingCheck {
     private final String signal;
-    private final double target, tolerance, afterS, byS, toS;
+    private final double tolerance, afterS, byS, toS, preS;
+    private double target;
+    private double preSum;
+    private long preCount;
     private int slot;
     private String unit;
     private long count;
@@ -18,7 +23,7 @@ public final class SettleCheck extends StreamingCheck {
     private double lastS = Double.NaN, lastValue = Double.NaN;
 
     public SettleCheck(String name, String signal, double target, double tolerance, double afterS, double byS,
-                       double toS) {
+                       double toS, double preS) {
         super(name, "settle");
         this.signal = signal;
         this.target = target;
@@ -26,6 +31,7 @@ public final class SettleCheck extends StreamingCheck {
         this.afterS = afterS;
         this.byS = byS;
         this.toS = toS;
+        this.preS = preS;
     }
 
     @Override
@@ -41,10 +47,20 @@ public final class SettleCheck extends StreamingCheck {
 
     @Override
     public void onSample(double timeS, double[] values) {
-        if (timeS < afterS || timeS > toS) {
+        final double v = values[slot];
+        if (timeS < afterS) {
+            if (timeS >= afterS - preS) {
+                preSum += v;
+                preCount++;
+            }
             return;
         }
-        final double v = values[slot];
+        if (timeS > toS) {
+            return;
+        }
+        if (count == 0 && Double.isNaN(target)) {
+            target = preCount == 0 ? Double.NaN : preSum / preCount;
+        }
         count++;
         final boolean inside = Math.abs(v - target) <= tolerance;
         if (inside) {

@@ -13,6 +13,10 @@ final class Subcommands {
         commands.add(new dev.galebench.plant.cli.TurbineCommand());
         commands.add(new dev.galebench.board.BoardSubcommand());
         commands.add(new dev.galebench.runner.SequencesCommand());
+        commands.add(new dev.galebench.runner.RunCommand());
+        commands.add(new dev.galebench.runner.DemoCommand());
+        commands.add(new dev.galebench.runner.CompareCommand());
+        commands.add(new dev.galebench.runner.ReplayCommand());
         commands.add(new dev.galebench.cli.preflight.PreflightCommand());
         commands.add(new dev.galebench.board.control.ControllerCommand());
         commands.add(new dev.galebench.cli.serve.ServeCommand());

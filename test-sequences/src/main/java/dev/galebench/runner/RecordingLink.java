@@ -27,7 +27,7 @@ import java.util.concurrent.locks.LockSupport;
 public final class RecordingLink implements BoardLink {
     static final int RING_RECORDS = 1 << 16;
     private final BoardLink inner;
-    private final RecordRing ring = new RecordRing(RING_RECORDS, ReplyLog.RECORD_LONGS);
+    private final RecordRing ring;
     private final Thread writer;
     private final Path file;
     private volatile boolean done;
@@ -39,6 +39,13 @@ public final class RecordingLink implements BoardLink {
 
     /** Starts recording the replies of {@code inner} into {@code file}. */
     public RecordingLink(BoardLink inner, Path file, long stepPeriodNs, int exchangeEverySteps) throws IOException {
+        this(inner, file, stepPeriodNs, exchangeEverySteps, RING_RECORDS);
+    }
+
+    /** Same, with a ring of {@code ringRecords} (a power of two; tests use a small one). */
+    RecordingLink(BoardLink inner, Path file, long stepPeriodNs, int exchangeEverySteps, int ringRecords)
+            throws IOException {
+        this.ring = new RecordRing(ringRecords, ReplyLog.RECORD_LONGS);
         this.inner = inner;
         this.file = file;
         OutputStream os = Files.newOutputStream(file);
@@ -131,6 +138,11 @@ public final class RecordingLink implements BoardLink {
             throw new UncheckedIOException(file + ": " + failure.getMessage(), failure);
         }
         return written;
+    }
+
+    /** Replies waiting in the ring for the writer (tests). */
+    long pending() {
+        return ring.available();
     }
 
     /** Replies lost because the writer fell behind (0 in a complete recording). */

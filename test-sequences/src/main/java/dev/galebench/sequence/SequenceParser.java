@@ -327,16 +327,22 @@ public final class SequenceParser {
                     return new CheckDef(name, kind, m, sig, () -> new BandCheck(name, s, lo, hi, from, to));
                 }
                 case "settle": {
-                    p.allowOnly("signal", "target", "tolerance", "after_s", "by_s", "to_s");
+                    p.allowOnly("signal", "target", "tolerance", "after_s", "by_s", "to_s", "pre_s");
                     String s = signal(p, "signal", null, sig);
-                    double target = p.number("target"), tol = p.positive("tolerance", "");
+                    double target = p.text("target").equals("pre") ? Double.NaN : p.number("target");
+                    double tol = p.positive("tolerance", "");
+                    double pre = p.number("pre_s", 0.1, 0.001, 10, "s");
                     double after = window(p, "after_s", 0), by = p.number("by_s", 0, durationS, "s");
                     double to = window(p, "to_s", durationS);
                     order(p, "after_s", after, "by_s", by);
                     if (by > to) {
                         throw new SequenceException(p.markOf("by_s"), "'by_s' must not be after 'to_s'");
                     }
-                    return new CheckDef(name, kind, m, sig, () -> new SettleCheck(name, s, target, tol, after, by, to));
+                    if (Double.isNaN(target) && after - pre < 0) {
+                        throw new SequenceException(p.markOf("target"), "target: pre needs " + YamlObject.fmt(pre)
+                                + " s of signal before after_s");
+                    }
+                    return new CheckDef(name, kind, m, sig, () -> new SettleCheck(name, s, target, tol, after, by, to, pre));
                 }
                 case "rise_time":
                 case "overshoot": {
@@ -408,7 +414,7 @@ public final class SequenceParser {
                 }
                 case "reactive_current": {
                     p.allowOnly("at_s", "until_s", "k", "delay_s", "tolerance_pu", "tolerance_low_pu", "tolerance_high_pu",
-                            "deadband_pu", "max_pu", "pre_s", "voltage_signal", "current_signal");
+                            "deadband_pu", "max_pu", "pre_s", "voltage_signal", "current_signal", "rated_current_pu");
                     String v = signal(p, "voltage_signal", "v_term_pu", sig);
                     String i = signal(p, "current_signal", "i_reactive_pu", sig);
                     double at = window(p, "at_s", 0), until = window(p, "until_s", durationS);
@@ -427,12 +433,13 @@ public final class SequenceParser {
                     }
                     double db = p.number("deadband_pu", 0, 0, 0.5, "pu"), max = p.number("max_pu", 1.0, 0.1, 2, "pu");
                     double pre = p.number("pre_s", 0.1, 0.001, 10, "s");
+                    double in = p.number("rated_current_pu", 1.0, 0.1, 10, "pu");
                     if (at - pre < 0) {
                         throw new SequenceException(p.markOf("at_s"), "the pre-fault window of " + YamlObject.fmt(pre)
                                 + " s before at_s starts before the run");
                     }
                     return new CheckDef(name, kind, m, sig, () -> new ReactiveCurrentCheck(name, v, i, at, until, k,
-                            delay, tlo, thi, db, max, pre));
+                            delay, tlo, thi, db, max, pre, in));
                 }
                 case "power_recovery": {
                     p.allowOnly("signal", "fault_at_s", "cleared_at_s", "within_s", "fraction", "pre_s");

@@ -43,13 +43,19 @@ class ChecksTest {
         // x(t) = 1 - exp(-(t - 1)/tau) enters 1 +/- 0.02 at tau ln 50 after the step (analytic)
         double tau = 0.05;
         AnalyticFeed f = feed().with("q_grid_pu", t -> t < 1 ? 0 : 1 - Math.exp(-(t - 1) / tau));
-        CheckOutcome o = run(new SettleCheck("s", "q_grid_pu", 1.0, 0.02, 1.0, 1.25, 2.0), f, 2.0);
+        CheckOutcome o = run(new SettleCheck("s", "q_grid_pu", 1.0, 0.02, 1.0, 1.25, 2.0, 0.1), f, 2.0);
         assertTrue(o.passed(), o.toString());
         double expected = tau * Math.log(50);
         assertEquals(Fmt.duration(Math.ceil(expected / 50e-6) * 50e-6), o.measured());
-        CheckOutcome late = run(new SettleCheck("s", "q_grid_pu", 1.0, 0.02, 1.0, 1.15, 2.0), f, 2.0);
+        CheckOutcome late = run(new SettleCheck("s", "q_grid_pu", 1.0, 0.02, 1.0, 1.15, 2.0, 0.1), f, 2.0);
         assertFalse(late.passed());
         assertTrue(late.message().contains("too late"), late.message());
+        // back to the pre-step value: a dip from 0.7 that recovers as 0.7 - 0.3 exp(-(t - 1)/tau)
+        AnalyticFeed back = feed().with("q_grid_pu", t -> t < 1 ? 0.7 : 0.7 - 0.3 * Math.exp(-(t - 1) / tau));
+        CheckOutcome pre = run(new SettleCheck("s", "q_grid_pu", Double.NaN, 0.006, 1.0, 1.25, 2.0, 0.1), back, 2.0);
+        assertTrue(pre.passed(), pre.toString());
+        assertEquals(Fmt.duration(Math.ceil(expected / 50e-6) * 50e-6), pre.measured());
+        assertEquals(0.7 - 0.006, pre.bandLow(), 1e-12);
     }
 
     @Test
@@ -130,18 +136,25 @@ class ChecksTest {
         AnalyticFeed good = feed().with("v_term_pu", t -> t >= 1 && t < 1.2 ? 0.6 : 1.0)
                 .with("i_reactive_pu", t -> t >= 1.01 && t < 1.2 ? 0.05 + 0.8 + 0.02 : 0.05);
         ReactiveCurrentCheck c = new ReactiveCurrentCheck("k", "v_term_pu", "i_reactive_pu", 1.0, 1.2, 2.0, 0.03,
-                0.1, 0.2, 0.0, 1.1, 0.1);
+                0.1, 0.2, 0.0, 1.1, 0.1, 1.0);
         CheckOutcome o = run(c, good, 2.0);
         assertTrue(o.passed(), o.toString());
         AnalyticFeed none = feed().with("v_term_pu", t -> t >= 1 && t < 1.2 ? 0.6 : 1.0)
                 .with("i_reactive_pu", t -> 0.05);
         CheckOutcome bad = run(new ReactiveCurrentCheck("k", "v_term_pu", "i_reactive_pu", 1.0, 1.2, 2.0, 0.03,
-                0.1, 0.2, 0.0, 1.1, 0.1), none, 2.0);
+                0.1, 0.2, 0.0, 1.1, 0.1, 1.0), none, 2.0);
         assertFalse(bad.passed());
         assertTrue(bad.message().startsWith("i_reactive_pu left the tolerance at 1.03") && bad.message().contains(
                 "measured 0.05 pu, expected 0.85 pu"), bad.message());
         assertEquals(0.85 + 0.2, bad.bandHigh(), 1e-9);
         assertEquals(0.85 + 0.0, c.expected(0.6, 1.0, 0.05), 1e-12);
+        // the same current recorded in a pu 1.25 times smaller: judged in pu of I_N it passes again
+        AnalyticFeed scaled = feed().with("v_term_pu", t -> t >= 1 && t < 1.2 ? 0.6 : 1.0)
+                .with("i_reactive_pu", t -> 1.25 * (t >= 1.01 && t < 1.2 ? 0.05 + 0.8 + 0.02 : 0.05));
+        assertFalse(run(new ReactiveCurrentCheck("k", "v_term_pu", "i_reactive_pu", 1.0, 1.2, 2.0, 0.03,
+                0.1, 0.2, 0.0, 1.1, 0.1, 1.0), scaled, 2.0).passed());
+        assertTrue(run(new ReactiveCurrentCheck("k", "v_term_pu", "i_reactive_pu", 1.0, 1.2, 2.0, 0.03,
+                0.1, 0.2, 0.0, 1.1, 0.1, 1.25), scaled, 2.0).passed());
         assertEquals(1.1, c.expected(0.1, 1.0, 0.05), 1e-12, "clipped at the current limit");
     }
 

@@ -222,8 +222,11 @@ public final class ControllerFile {
         final double a = v.get(low);
         final double b = v.get(high);
         if (strict ? a >= b : a > b) {
-            problems.add(where(name, lines, lines.containsKey(low) ? low : high) + ": " + low + " (" + a
-                    + ") must be " + word + " " + high + " (" + b + ")");
+            if (lines.containsKey(low) || !lines.containsKey(high)) {
+                problems.add(where(name, lines, low) + ": " + a + " must be " + word + " " + high + " (" + b + ")");
+            } else {
+                problems.add(where(name, lines, high) + ": " + b + " must be above " + low + " (" + a + ")");
+            }
         }
     }
 

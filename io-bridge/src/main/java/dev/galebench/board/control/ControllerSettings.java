@@ -29,7 +29,7 @@ import java.util.Map;
  *   <tr><td>dcDampingRatio</td><td>dc_voltage.damping_ratio</td><td>1</td><td>0.8</td></tr>
  *   <tr><td>dcVoltageFilterS</td><td>dc_voltage.filter_s</td><td>s</td><td>0.0005</td></tr>
  *   <tr><td>voltageLoopGainPu</td><td>reactive.voltage_gain_pu</td><td>pu current / pu voltage</td><td>2.0</td></tr>
- *   <tr><td>voltageFilterS</td><td>reactive.voltage_filter_s</td><td>s</td><td>0.005 (magnitude filter)</td></tr>
+ *   <tr><td>voltageFilterS</td><td>reactive.voltage_filter_s</td><td>s</td><td>0.001 (magnitude filter; short, so the reactive current falls at once when the voltage returns)</td></tr>
  *   <tr><td>voltageReferenceFilterS</td><td>reactive.reference_filter_s</td><td>s</td><td>60: pre-fault mean voltage (VDE-AR-N 4120, 1-min mean, from memory)</td></tr>
  *   <tr><td>pllNaturalFrequencyHz</td><td>pll.natural_frequency_hz</td><td>Hz</td><td>8</td></tr>
  *   <tr><td>pllDampingRatio</td><td>pll.damping_ratio</td><td>1</td><td>0.707</td></tr>

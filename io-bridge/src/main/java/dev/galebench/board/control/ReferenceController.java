@@ -48,7 +48,7 @@ public final class ReferenceController implements BoardController {
     private final double vBase, iBase, omegaNom, vdcRef, vdcNom;
     private final double rTot, lTot, rBeyond, lBeyond;
     private final double rs, ld, lq, psi, polePairs, statorBase, mscLimitA;
-    private final double kOptGen, ratedGenSpeed, ratedPower, maxTorque, transitionSpeed;
+    private final double kOptGen, ratedGenSpeed, ratedPower, maxTorque, transitionSpeed, minGenSpeed;
     private final double pitchKp, pitchKi, pitchThetaK, pitchMin, pitchMax, pitchRate;
     private final double kFactor, kVoltage, limitNormal, limitFrt, recoveryRate, modLimit;
     private final double chopperOnV, chopperOffV;
@@ -142,6 +142,7 @@ public final class ReferenceController implements BoardController {
         ratedPower = p.ratedPowerW;
         maxTorque = t.maxTorqueNm;
         transitionSpeed = s.torqueTransitionSpeedPu * t.ratedGeneratorSpeedRadPerS;
+        minGenSpeed = p.minRotorSpeedRadPerS * p.gearRatio;
         pitchKp = t.pitchKp;
         pitchKi = t.pitchKi;
         pitchThetaK = t.pitchScheduleThetaKRad;
@@ -337,19 +338,15 @@ public final class ReferenceController implements BoardController {
             final double emfAngle = Math.atan2(eq, ed); // EMF angle in the (pre-fault) PLL frame
             pllOffsetCos = Math.cos(-emfAngle);
             pllOffsetSin = Math.sin(-emfAngle);
+            // pre-fault reactive current: a 0.1 s mean, so the voltage loop's reaction to the
+            // first milliseconds of the dip (before detection) is not counted as pre-fault
+            reactivePreFaultPu = reactiveMean.value();
         }
         if (frtActive) {
             pll.step(ea * pllOffsetCos - eb * pllOffsetSin, ea * pllOffsetSin + eb * pllOffsetCos);
         } else {
             pll.step(va, vb);
-        }
-        if (!frtActive) {
             preFaultVoltage.step(u);
-        }
-        if (frtActive && !frtWasActive) {
-            // pre-fault reactive current: a 0.1 s mean, so the voltage loop's reaction to the
-            // first milliseconds of the dip (before detection) is not counted as pre-fault
-            reactivePreFaultPu = reactiveMean.value();
         }
         frtWasActive = frtActive;
 
@@ -361,7 +358,7 @@ public final class ReferenceController implements BoardController {
             voltageRefPu = u0 + in.voltageDeviationRefPu;
             reactivePu = kVoltage * (voltageRefPu - u);
         }
-        if (overrideGscIqPu == overrideGscIqPu) {
+        if (!Double.isNaN(overrideGscIqPu)) {
             reactivePu = -overrideGscIqPu;
         }
         if (!frtActive) {
@@ -441,7 +438,11 @@ public final class ReferenceController implements BoardController {
         final boolean running = state == STATE_RUNNING;
         final boolean tripped = state == STATE_TRIPPED;
 
-        double torque = running ? torqueReference(wg) : 0.0;
+        // stopping (cut-out, low wind): the blades feather at their rate limit while the machine
+        // side keeps the torque law, so the rotor slows down instead of running away; the
+        // machine side blocks once the speed is below the minimum operating speed
+        final boolean mscOn = !tripped && (running || wg > minGenSpeed);
+        double torque = mscOn ? torqueReference(wg) : 0.0;
         mscTorqueRefNm = torque;
         double isdRef = 0.0;
         double isqRef;
@@ -456,7 +457,7 @@ public final class ReferenceController implements BoardController {
         } else {
             isqRef = torque / (1.5 * polePairs * psi);
         }
-        if (overrideMscIdA == overrideMscIdA) {
+        if (!Double.isNaN(overrideMscIdA)) {
             isdRef = overrideMscIdA;
         }
         final double imag = Math.sqrt(isdRef * isdRef + isqRef * isqRef);
@@ -479,7 +480,6 @@ public final class ReferenceController implements BoardController {
             mscPiD.resetTo(mIntD);
             mscPiQ.resetTo(mIntQ);
         }
-        final boolean mscOn = running;
         if (!mscOn) {
             // blocked: keep integrators at the no-current state so a restart is bumpless
             mscPiD.resetTo(rs * isd);
@@ -493,9 +493,11 @@ public final class ReferenceController implements BoardController {
         pitchControl(wg, h, running);
 
         // ================= chopper
-        if (vdc > chopperOnV) {
+        // on the unfiltered measurement: the chopper is the fast protection of the DC link
+        final double vdcRaw = in.dcLinkVoltageV;
+        if (vdcRaw > chopperOnV) {
             chopperOn = true;
-        } else if (vdc < chopperOffV) {
+        } else if (vdcRaw < chopperOffV) {
             chopperOn = false;
         }
 

@@ -34,10 +34,14 @@ class ClosedLoopFaultRideThroughTest {
     }
 
     private static Run dip(double a, double b, double c, double lengthS, double totalS) {
-        final ClosedLoop cl = new ClosedLoop(TURBINE, ControllerFile.defaults(), 10.0);
+        return dip(10.0, a, b, c, lengthS, totalS);
+    }
+
+    private static Run dip(double windMPerS, double a, double b, double c, double lengthS, double totalS) {
+        final ClosedLoop cl = new ClosedLoop(TURBINE, ControllerFile.defaults(), windMPerS);
         final int every = 2;
         final long n = Math.round(totalS / cl.stepS());
-        final double[][] rec = new double[NAMES.length + 1][(int) (n / every) + 1];
+        final double[][] rec = new double[NAMES.length + 1][(int) ((n + every - 1) / every)];
         final int[] idx = new int[NAMES.length];
         for (int i = 0; i < NAMES.length; i++) {
             idx[i] = cl.signalIndex(NAMES[i]);
@@ -116,6 +120,7 @@ class ClosedLoopFaultRideThroughTest {
         final Run run = dip(0.5, 0.5, 0.5, DIP_LENGTH_S, 1.0);
         assertNoTrip(run);
         assertReactiveCurrentFollowsKFactor(run, "dip 0.5 pu");
+        System.out.printf("dip 0.5 pu: DC %.1f..%.1f V%n", ClosedLoop.min(run.rec, 1, 0, 1), ClosedLoop.max(run.rec, 1, 0, 1));
         assertTrue(ClosedLoop.max(run.rec, 1, 0, 1) < TURBINE.dcOvervoltageTripV, "DC below the hardware trip");
         assertTrue(run.frtFirstS >= DIP_START_S && run.frtFirstS < DIP_START_S + 0.005, "FRT flag within 5 ms");
         final double p0 = ClosedLoop.mean(run.rec, 5, 0.1, 0.19);
@@ -144,6 +149,19 @@ class ClosedLoopFaultRideThroughTest {
         assertEquals(rate, measuredRate, 0.15 * rate);
         final double p0 = ClosedLoop.mean(run.rec, 5, 0.1, 0.19);
         assertEquals(p0, ClosedLoop.mean(run.rec, 5, 1.3, 1.4), 0.03, "active power recovered");
+    }
+
+    @Test
+    void shouldRideThroughTheDeepDipAtRatedPower() {
+        // 16 m/s: the chopper must take the full 4 MW for 150 ms (R = 0.4 ohm: 4 MW at 1265 V)
+        final Run run = dip(16.0, 0.05, 0.05, 0.05, DIP_LENGTH_S, 1.2);
+        assertNoTrip(run);
+        assertReactiveCurrentFollowsKFactor(run, "dip 0.05 pu at rated power");
+        final double dcMax = ClosedLoop.max(run.rec, 1, 0, 1.2);
+        System.out.printf("dip 0.05 pu at rated power: DC max %.1f V%n", dcMax);
+        assertTrue(dcMax < TURBINE.dcOvervoltageTripV);
+        final double p0 = ClosedLoop.mean(run.rec, 5, 0.1, 0.19);
+        assertEquals(p0, ClosedLoop.mean(run.rec, 5, 1.1, 1.2), 0.03, "rated power again after the ramp");
     }
 
     @Test

@@ -27,6 +27,8 @@ public final class ClosedLoop {
     private final double[] signals;
     private final Map<String, Integer> index = new HashMap<>();
     private final double stepS;
+    private int exchangeEverySteps = 1;
+    private long stepCount;
 
     public ClosedLoop(TurbineParameters p, ControllerSettings s, double windMPerS, double gridVoltagePu,
             double reactivePowerPu, long stepNs) {
@@ -69,10 +71,26 @@ public final class ClosedLoop {
         return stepS;
     }
 
-    /** One exchange and one plant step; refreshes the signals. */
-    public void step() {
+    /**
+     * Exchange with the controller every {@code m} plant steps (a slower link, e.g. serial); the
+     * command is held in between. Sets the controller's sample period to {@code m h} and
+     * restarts it from the present measurement.
+     */
+    public ClosedLoop exchangeEvery(int m) {
+        exchangeEverySteps = m;
+        controller.setSamplePeriod(m * stepS);
         plant.sense(view);
-        controller.update(view, command);
+        controller.start(view);
+        return this;
+    }
+
+    /** One plant step, with an exchange first when one is due; refreshes the signals. */
+    public void step() {
+        if (stepCount % exchangeEverySteps == 0) {
+            plant.sense(view);
+            controller.update(view, command);
+        }
+        stepCount++;
         plant.step(command);
         plant.sample(signals);
     }
