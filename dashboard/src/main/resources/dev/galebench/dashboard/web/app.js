@@ -270,7 +270,7 @@
     li.querySelector('.v-name').textContent = m.name;
     li.querySelector('.v-mark').textContent = m.passed ? 'PASS' : 'FAIL';
     li.querySelector('.v-body').textContent = m.measured + ' (required ' + m.required + ')' +
-      (m.tS != null ? ' at ' + fmt(m.tS, 2) + ' s' : '') + (m.passed ? '' : ' \u2014 ' + m.message);
+      (m.tS != null ? ' \u00b7 window to ' + fmt(m.tS, 2) + ' s' : '') + (m.passed ? '' : ' \u2014 ' + m.message);
     tally();
   }
 

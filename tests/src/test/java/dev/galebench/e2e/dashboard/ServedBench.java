@@ -81,9 +81,14 @@ final class ServedBench implements AutoCloseable {
     }
 
     @Override
-    public void close() throws InterruptedException {
+    public void close() {
         if (process.isAlive()) {
-            stop();
+            try {
+                stop();
+            } catch (InterruptedException e) {
+                process.destroyForcibly();
+                Thread.currentThread().interrupt();
+            }
         }
     }
 }
