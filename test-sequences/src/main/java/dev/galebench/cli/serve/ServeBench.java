@@ -70,9 +70,10 @@ public final class ServeBench implements BenchControl, AutoCloseable {
      * @param controller     control law of the virtual board (one of the virtual board's names)
      * @param windMPerS      wind of the first free run, m/s
      * @param sessionDir     folder for {@code controls.log} and sequence runs
+     * @param holdAfterSequenceS how long a finished sequence's plots stay before the free run resumes, s
      */
     public record Settings(TurbineParameters turbine, long stepPeriodNs, String board, String controller,
-                           double windMPerS, Path sessionDir) {
+                           double windMPerS, Path sessionDir, double holdAfterSequenceS) {
     }
 
     private final Settings settings;
@@ -85,6 +86,7 @@ public final class ServeBench implements BenchControl, AutoCloseable {
     private volatile BenchMailbox mailbox;
     private volatile double windMPerS;
     private volatile String lastProblem = "";
+    private volatile long holdUntilNs;
     private final AtomicReference<String> requested = new AtomicReference<>();
     private final AtomicInteger runCount = new AtomicInteger();
     private volatile String runningSequence;
@@ -132,6 +134,7 @@ public final class ServeBench implements BenchControl, AutoCloseable {
                 String next = requested.get();
                 if (next != null) {
                     runSequence(next);
+                    holdAfterSequence();
                     continue;
                 }
                 runFree();
@@ -144,6 +147,20 @@ public final class ServeBench implements BenchControl, AutoCloseable {
                 sleepQuietly(2000);
             }
         }
+    }
+
+    /**
+     * Keeps the finished sequence's waveforms on the consoles for {@code holdAfterSequenceS}
+     * before the free run (a new stream) replaces them; a start request or shutdown ends the
+     * hold at once.
+     */
+    private void holdAfterSequence() {
+        final long untilNs = System.nanoTime() + Math.round(settings.holdAfterSequenceS() * 1e9);
+        holdUntilNs = untilNs;
+        while (!closing && requested.get() == null && System.nanoTime() < untilNs) {
+            sleepQuietly(20);
+        }
+        holdUntilNs = 0;
     }
 
     private void runFree() throws InterruptedException {
@@ -354,6 +371,11 @@ public final class ServeBench implements BenchControl, AutoCloseable {
     }
 
     private ControlResult notRunning() {
+        long hold = holdUntilNs;
+        if (hold != 0) {
+            return ControlResult.refused(String.format(Locale.ROOT,
+                    "showing the last sequence; the free run resumes in %.0f s", Math.max(0, (hold - System.nanoTime()) * 1e-9)));
+        }
         return ControlResult.refused("the plant is not running right now" + (lastProblem.isEmpty() ? "" : ": " + lastProblem));
     }
 
