@@ -141,13 +141,21 @@
     scheduleRedraw();
   }
 
+  // Redraw at most every REDRAW_MS and only when the tab is visible: drawing six plots is the
+  // page's main cost, and a browser on the bench PC shares its CPU with the real-time loop.
+  var REDRAW_MS = 200;
+  var lastRedraw = 0;
   function scheduleRedraw() {
     if (state.redrawPending) { return; }
     state.redrawPending = true;
-    requestAnimationFrame(function () {
-      state.redrawPending = false;
-      panels.forEach(function (p) { if (p.plot) { p.plot.setData(p.data); } });
-    });
+    var wait = Math.max(0, REDRAW_MS - (Date.now() - lastRedraw));
+    setTimeout(function () {
+      requestAnimationFrame(function () {
+        state.redrawPending = false;
+        lastRedraw = Date.now();
+        panels.forEach(function (p) { if (p.plot) { p.plot.setData(p.data); } });
+      });
+    }, wait);
   }
 
   // ---------- timing and link ----------

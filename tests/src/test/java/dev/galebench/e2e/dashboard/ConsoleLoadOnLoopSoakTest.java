@@ -61,6 +61,7 @@ class ConsoleLoadOnLoopSoakTest {
         int rounds = Integer.getInteger("galebench.load.rounds", 3);
         int seconds = Integer.getInteger("galebench.load.seconds", 20);
         List<double[]> without = new ArrayList<>();
+        List<double[]> sockets = new ArrayList<>();
         List<double[]> with = new ArrayList<>();
         StringBuilder report = new StringBuilder();
         report.append(String.format(Locale.ROOT, "# load average at start %.2f (2 cores)%n",
@@ -72,10 +73,17 @@ class ConsoleLoadOnLoopSoakTest {
             double[] a = runLoop(seconds, null);
             without.add(a);
             report.append(line("without", a));
+            double[] c = runWithTwoSocketViewers(seconds);
+            sockets.add(c);
+            report.append(line("2 socket viewers", c));
             double[] b = runWithTwoConsoles(seconds);
             with.add(b);
             report.append(line("with 2 consoles", b));
         }
+        report.append(String.format(Locale.ROOT, "median p99.9 with 2 socket viewers (browsers elsewhere) %.2f us, ratio %.3f%n",
+                median(sockets, 2), median(sockets, 2) / median(without, 2)));
+        report.append(String.format(Locale.ROOT, "median p99 with 2 socket viewers %.2f us, ratio %.3f%n",
+                median(sockets, 1), median(sockets, 1) / median(without, 1)));
         double p999Without = median(without, 2);
         double p999With = median(with, 2);
         double p99Without = median(without, 1);
@@ -117,6 +125,38 @@ class ConsoleLoadOnLoopSoakTest {
                                 && drv.findElement(By.id("timing-kv")).getText().contains("lateness p99.9"));
             }
             assertEquals(0, d.slowViewerSkips(), "both consoles kept up");
+            return r;
+        }
+    }
+
+    /**
+     * The server side of two open consoles whose browsers run on another machine: two real
+     * WebSocket clients (JDK) receive every message; the console does all its work (decimation,
+     * encoding, two sockets), nothing draws on this host.
+     */
+    private double[] runWithTwoSocketViewers(int seconds) throws Exception {
+        try (Dashboard d = Dashboard.start(DashboardOptions.loopback(0), null, null)) {
+            java.util.concurrent.atomic.AtomicLong received = new java.util.concurrent.atomic.AtomicLong();
+            List<java.net.http.WebSocket> sockets = new ArrayList<>();
+            for (int i = 0; i < 2; i++) {
+                sockets.add(java.net.http.HttpClient.newHttpClient().newWebSocketBuilder()
+                        .buildAsync(java.net.URI.create("ws://127.0.0.1:" + d.port() + "/ws"), new java.net.http.WebSocket.Listener() {
+                            @Override
+                            public java.util.concurrent.CompletionStage<?> onText(java.net.http.WebSocket ws, CharSequence data, boolean last) {
+                                if (last) {
+                                    received.incrementAndGet();
+                                }
+                                ws.request(1);
+                                return null;
+                            }
+                        }).join());
+            }
+            awaitViewers(d, 2);
+            double[] r = runLoop(seconds, d);
+            assertTrue(received.get() > seconds * 2L * 5, "the viewers received the stream: " + received.get() + " messages");
+            for (java.net.http.WebSocket ws : sockets) {
+                ws.abort();
+            }
             return r;
         }
     }
