@@ -75,7 +75,7 @@ final class LinkSupervisor {
         return inForce;
     }
 
-    /** Records that frame {@code sequence} left (or tried to) at {@code nowNs}. */
+    /** Records that frame {@code sequence} is about to be sent at {@code nowNs} (round trips count from here). */
     void onSent(long sequence, long nowNs) {
         lastSentSeq = sequence;
         sendTimeNs[(int) (sequence & SEND_TIME_MASK)] = nowNs;

@@ -95,6 +95,78 @@ public final class LoopResult {
         this.baseTimeMs = baseTimeMs;
     }
 
+    /**
+     * One result for several runs made one after the other (e.g. the rounds of a preflight):
+     * counters, samples missed and link counters summed (so reset the link's counters between
+     * runs), histograms added, trip flags or-ed, the first stop that was not COMPLETED, wall times
+     * summed, interval logs concatenated (give the runs the same
+     * {@link RealTimeLoop#timingLogBaseTimeMs log base time}). Config and pinning of the first.
+     *
+     * @throws IllegalArgumentException if {@code parts} is empty or their consumers differ
+     */
+    public static LoopResult merge(List<LoopResult> parts) {
+        if (parts.isEmpty()) {
+            throw new IllegalArgumentException("nothing to merge");
+        }
+        final LoopResult first = parts.get(0);
+        final Histogram lateness = first.latenessNs.copy();
+        final Histogram compute = first.computeNs.copy();
+        final Histogram rtt = first.roundTripNs.copy();
+        final Histogram age = first.replyAgeExchanges.copy();
+        long exchanges = 0, steps = 0, overruns = 0, skipped = 0, clamped = 0, applied = 0, wall = 0;
+        final long[] missed = new long[first.samplesMissed.length];
+        final long[] errors = new long[first.consumerErrors.length];
+        final LinkCounters link = new LinkCounters();
+        int trips = 0;
+        StopReason stop = StopReason.COMPLETED;
+        String detail = "";
+        final java.io.ByteArrayOutputStream log = new java.io.ByteArrayOutputStream();
+        for (int i = 0; i < parts.size(); i++) {
+            final LoopResult r = parts.get(i);
+            if (!r.consumerNames.equals(first.consumerNames)) {
+                throw new IllegalArgumentException("runs to merge have different consumers: " + first.consumerNames + " vs " + r.consumerNames);
+            }
+            if (i > 0) {
+                lateness.add(r.latenessNs);
+                compute.add(r.computeNs);
+                rtt.add(r.roundTripNs);
+                age.add(r.replyAgeExchanges);
+            }
+            exchanges += r.exchanges;
+            steps += r.steps;
+            overruns += r.overruns;
+            skipped += r.skippedExchanges;
+            clamped += r.clampedTimingValues;
+            applied += r.repliesApplied;
+            wall += r.wallTimeNs;
+            for (int c = 0; c < missed.length; c++) {
+                missed[c] += r.samplesMissed[c];
+                errors[c] += r.consumerErrors[c];
+            }
+            final LinkCounters o = r.linkCounters;
+            link.framesSent += o.framesSent;
+            link.repliesAccepted += o.repliesAccepted;
+            link.crcErrors += o.crcErrors;
+            link.malformedFrames += o.malformedFrames;
+            link.lateReplies += o.lateReplies;
+            link.staleReplies += o.staleReplies;
+            link.duplicateReplies += o.duplicateReplies;
+            link.missingReplies += o.missingReplies;
+            link.invalidReferences += o.invalidReferences;
+            link.sendFailures += o.sendFailures;
+            link.watchdogTrips += o.watchdogTrips;
+            trips |= r.tripFlags;
+            if (stop == StopReason.COMPLETED && r.stopReason != StopReason.COMPLETED) {
+                stop = r.stopReason;
+                detail = r.stopDetail;
+            }
+            log.writeBytes(r.intervalLogBody);
+        }
+        return new LoopResult(first.config, exchanges, steps, overruns, skipped, lateness, compute, rtt, age, clamped,
+                first.consumerNames, missed, errors, applied, link, trips, stop, detail, wall, first.pinning,
+                log.toByteArray(), first.baseTimeMs);
+    }
+
     /** True if the run was stopped by {@link RealTimeLoop#abort} or by an error. */
     public boolean aborted() {
         return stopReason == StopReason.ABORTED || stopReason == StopReason.ERROR;

@@ -23,6 +23,10 @@ import java.util.concurrent.atomic.AtomicLong;
 public final class LoopTimings {
     static final long HIGHEST_TIME_NS = 60_000_000_000L;
     static final long HIGHEST_AGE = 1_000_000_000L;
+    /** Phase-flip period of the recorders during the start of a run, ms. */
+    static final long WARMUP_SWAP_MS = 10;
+    /** How long the frequent phase flips last, ms. */
+    static final long WARMUP_MS = 3_000;
 
     final TimingChannel lateness = new TimingChannel("lateness", HIGHEST_TIME_NS);
     final TimingChannel compute = new TimingChannel("compute", HIGHEST_TIME_NS);
@@ -52,31 +56,47 @@ public final class LoopTimings {
     synchronized void start(long baseTimeMs) {
         this.baseTimeMs = baseTimeMs;
         logWriter.setBaseTime(baseTimeMs);
-        // the first swap discards whatever was recorded before the run (nothing) and stamps the start
+        lateness.resetAll();
+        compute.resetAll();
+        rtt.resetAll();
+        replyAge.resetAll();
+    }
+
+    /**
+     * Reader: closes the recorders' current interval (a phase flip of each recorder) and adds it
+     * to the run totals; with {@code log} also writes everything since the last logged interval
+     * as one interval of the log. The loop's reader flips every {@value #WARMUP_SWAP_MS} ms during
+     * the first {@value #WARMUP_MS} ms and logs once per {@code timingIntervalNs}: the recorders'
+     * phase flips change the sign of the writer's epoch, and a flip that C2's profile never saw
+     * deoptimises the compiled loop once (an uncommon trap, which also re-materialises
+     * scalar-replaced objects on the loop thread). Flipping often while the loop is still being
+     * profiled avoids that.
+     */
+    synchronized void takeInterval(boolean log) {
         lateness.swapInterval();
         compute.swapInterval();
         rtt.swapInterval();
         replyAge.swapInterval();
-        lateness.total().reset();
-        compute.total().reset();
-        rtt.total().reset();
-        replyAge.total().reset();
-    }
-
-    /** Reader: closes the current interval of every channel and logs it. */
-    synchronized void takeInterval() {
-        logInterval(lateness.swapInterval());
-        logInterval(compute.swapInterval());
-        logInterval(rtt.swapInterval());
-        logInterval(replyAge.swapInterval());
-        intervals++;
-    }
-
-    private void logInterval(Histogram h) {
-        if (h.getStartTimeStamp() == Long.MAX_VALUE || h.getEndTimeStamp() == 0) {
-            return;
+        if (log) {
+            logPending(lateness);
+            logPending(compute);
+            logPending(rtt);
+            logPending(replyAge);
+            intervals++;
         }
-        logWriter.outputIntervalHistogram(h);
+    }
+
+    /** Reader: closes and logs the current interval. */
+    void takeInterval() {
+        takeInterval(true);
+    }
+
+    private void logPending(TimingChannel c) {
+        final Histogram h = c.pendingLogInterval();
+        if (h != null) {
+            logWriter.outputIntervalHistogram(h);
+        }
+        c.clearPending();
     }
 
     /** A consistent copy of what is known now (allocates; call from any non-real-time thread). */

@@ -60,6 +60,8 @@ public final class RealTimeLoop {
     private volatile boolean abortRequested;
     private volatile String abortReason = "";
     private volatile boolean started;
+    private volatile boolean readerStop;
+    private long logBaseTimeMs = -1;
 
     // written by the loop thread, read by run() after join()
     private ConsumerRing[] rings;
@@ -93,6 +95,19 @@ public final class RealTimeLoop {
         this.timings = new LoopTimings(config.exchangePeriodNs());
         this.supervisor = new LinkSupervisor(link.counters(), timings.rtt, config.pitchRefMinRad,
                 config.pitchRefMaxRad, config.watchdogExchanges());
+    }
+
+    /**
+     * Sets the base time of this run's interval log (epoch ms; default: the start of the run).
+     * Runs that share a base time can have their logs concatenated ({@link LoopResult#merge}).
+     * Call before {@link #run()}.
+     */
+    public RealTimeLoop timingLogBaseTimeMs(long epochMs) {
+        if (started) {
+            throw new IllegalStateException("set the log base time before run()");
+        }
+        logBaseTimeMs = epochMs;
+        return this;
     }
 
     /** Asks the loop to stop at its next exchange (any thread). */
@@ -132,7 +147,9 @@ public final class RealTimeLoop {
 
     /**
      * Runs the loop to its end: starts the consumer threads, runs the loop on a thread named
-     * "galebench-rt", joins it, lets consumers drain, and returns the result.
+     * "galebench-rt", joins it, lets consumers drain, and returns the result. If the calling
+     * thread is interrupted meanwhile, the loop is aborted ("caller interrupted"), the result is
+     * still returned and the interrupt flag is set again.
      *
      * @throws IllegalStateException if called twice
      */
@@ -155,14 +172,27 @@ public final class RealTimeLoop {
         for (ConsumerRing r : rings) {
             r.start();
         }
-        timings.start(System.currentTimeMillis());
+        timings.start(logBaseTimeMs >= 0 ? logBaseTimeMs : System.currentTimeMillis());
         final Thread reader = new Thread(this::readTimings, "galebench-rt-timing");
         reader.setDaemon(true);
         final Thread rt = new Thread(this::loopThread, "galebench-rt");
         rt.setPriority(Thread.MAX_PRIORITY);
         rt.start();
         reader.start();
-        rt.join();
+        boolean interrupted = false;
+        while (true) {
+            try {
+                rt.join();
+                break;
+            } catch (InterruptedException e) {
+                // the caller is being stopped: stop the loop too, then report as usual
+                abort("caller interrupted");
+                interrupted = true;
+            }
+        }
+        // a flag the reader checks at least every READER_CHECK_MS, not only the interrupt:
+        // HdrHistogram's phase flip sleeps and swallows interrupts
+        readerStop = true;
         reader.interrupt();
         reader.join();
         timings.takeInterval();
@@ -175,6 +205,9 @@ public final class RealTimeLoop {
         }
         final LinkCounters countersCopy = new LinkCounters();
         countersCopy.copyFrom(link.counters());
+        if (interrupted) {
+            Thread.currentThread().interrupt();
+        }
         return new LoopResult(config, timings.exchanges.get(), timings.steps.get(), timings.overruns.get(),
                 timings.skippedExchanges.get(), timings.copyTotal(timings.lateness), timings.copyTotal(timings.compute),
                 timings.copyTotal(timings.rtt), timings.copyTotal(timings.replyAge),
@@ -182,15 +215,35 @@ public final class RealTimeLoop {
                 stopReason, stopDetail, wallTimeNs, pinning, timings.intervalLogBody(), timings.baseTimeMs());
     }
 
+    /** Longest sleep of the timing reader between checks of its stop flag, ms. */
+    private static final long READER_CHECK_MS = 50;
+
     private void readTimings() {
         final long intervalMs = Math.max(1, config.timingIntervalNs / 1_000_000);
-        try {
-            while (!Thread.currentThread().isInterrupted()) {
-                Thread.sleep(intervalMs);
-                timings.takeInterval();
+        final long startMs = System.currentTimeMillis();
+        long nextLogMs = startMs + intervalMs;
+        long nextFlipMs = startMs + LoopTimings.WARMUP_SWAP_MS;
+        while (!readerStop) {
+            final long nowMs = System.currentTimeMillis();
+            final boolean warmup = nowMs - startMs < LoopTimings.WARMUP_MS;
+            final long dueMs = warmup ? Math.min(nextFlipMs, nextLogMs) : nextLogMs;
+            if (nowMs < dueMs) {
+                try {
+                    Thread.sleep(Math.min(READER_CHECK_MS, dueMs - nowMs));
+                } catch (InterruptedException e) {
+                    // run() sets readerStop first; the loop condition decides
+                }
+                continue;
             }
-        } catch (InterruptedException e) {
-            // end of run: run() takes the last interval itself
+            final boolean log = nowMs >= nextLogMs;
+            timings.takeInterval(log);
+            nextFlipMs = nowMs + LoopTimings.WARMUP_SWAP_MS;
+            if (log) {
+                nextLogMs += intervalMs;
+                if (nextLogMs <= nowMs) {
+                    nextLogMs = nowMs + intervalMs;
+                }
+            }
         }
     }
 
@@ -230,8 +283,10 @@ public final class RealTimeLoop {
         sup.init(v);
         sup.beginExchange(0);
         final long t0 = System.nanoTime() + period;
-        l.send(0, v);
+        // round trips are timed from just before the send: on a busy machine the send system call
+        // may wake the board and be preempted until its reply is already waiting
         sup.onSent(0, System.nanoTime());
+        l.send(0, v);
 
         long k = 0;
         long exchange = 0;
@@ -318,9 +373,9 @@ public final class RealTimeLoop {
 
             exchange++;
             sup.beginExchange(exchange);
+            sup.onSent(exchange, System.nanoTime());
             l.send(exchange, v);
             end = System.nanoTime();
-            sup.onSent(exchange, end);
 
             if (realTime) {
                 t.lateness.record(latenessNs);

@@ -24,6 +24,9 @@ final class TimingChannel {
     private final SingleWriterRecorder recorder;
     private final AtomicLong clamped = new AtomicLong();
     private final Histogram total;
+    private final Histogram pending;
+    private long pendingStartMs = Long.MAX_VALUE;
+    private long pendingEndMs;
     private Histogram interval;
 
     TimingChannel(String tag, long highestTrackable) {
@@ -32,6 +35,8 @@ final class TimingChannel {
         this.recorder = new SingleWriterRecorder(1, highestTrackable, SIGNIFICANT_DIGITS);
         this.total = new Histogram(1, highestTrackable, SIGNIFICANT_DIGITS);
         this.total.setTag(tag);
+        this.pending = new Histogram(1, highestTrackable, SIGNIFICANT_DIGITS);
+        this.pending.setTag(tag);
         this.interval = recorder.getIntervalHistogram();
     }
 
@@ -53,12 +58,43 @@ final class TimingChannel {
         return clamped.get();
     }
 
-    /** Reader: swaps the interval, adds it to the total, returns the (reused) interval histogram, tagged. */
-    Histogram swapInterval() {
+    /**
+     * Reader: swaps the recorder's interval, adds it to the run total and to the pending log
+     * interval (several swaps may make one logged interval).
+     */
+    void swapInterval() {
         interval = recorder.getIntervalHistogram(interval);
         interval.setTag(tag);
         total.add(interval);
-        return interval;
+        pending.add(interval);
+        pendingStartMs = Math.min(pendingStartMs, interval.getStartTimeStamp());
+        pendingEndMs = Math.max(pendingEndMs, interval.getEndTimeStamp());
+    }
+
+    /** Reader: the histogram of everything swapped since the last call, timestamped and tagged, or null if nothing was swapped. */
+    Histogram pendingLogInterval() {
+        if (pendingStartMs == Long.MAX_VALUE) {
+            return null;
+        }
+        pending.setStartTimeStamp(pendingStartMs);
+        pending.setEndTimeStamp(pendingEndMs);
+        return pending;
+    }
+
+    /** Reader: starts a new pending log interval. */
+    void clearPending() {
+        pending.reset();
+        pending.setTag(tag);
+        pendingStartMs = Long.MAX_VALUE;
+        pendingEndMs = 0;
+    }
+
+    /** Reader: discards everything recorded so far (before the run starts). */
+    void resetAll() {
+        swapInterval();
+        total.reset();
+        total.setTag(tag);
+        clearPending();
     }
 
     /** Reader: the whole-run histogram so far (live object, copy before handing out). */

@@ -33,6 +33,11 @@ class LinkSupervisionTest {
         return LoopFixtures.run(cfg.build(), plant, new EchoBoardLink(script), null, List.of(samples));
     }
 
+    /** Each exchange checks the frame sent before it: answered in time, or missing. */
+    private static void assertEveryExchangeAccounted(LoopResult r) {
+        assertEquals(r.exchanges, r.linkCounters.missingReplies + r.repliesApplied - r.linkCounters.lateReplies);
+    }
+
     private double at(int exchange, String signal) {
         return samples.values.get(exchange)[samples.column(signal)];
     }
@@ -40,6 +45,7 @@ class LinkSupervisionTest {
     @Test
     void shouldAcceptEveryOnTimeReplyWithAgeZero() throws Exception {
         LoopResult r = run(null, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(100, r.linkCounters.repliesAccepted);
         assertEquals(100, r.repliesApplied);
         assertEquals(0, r.linkCounters.lateReplies + r.linkCounters.staleReplies + r.linkCounters.duplicateReplies
@@ -51,6 +57,7 @@ class LinkSupervisionTest {
     @Test
     void shouldDropAndCountDuplicateReply() throws Exception {
         LoopResult r = run(seq -> seq == 10 ? EchoBoardLink.DUPLICATE : EchoBoardLink.NORMAL, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.duplicateReplies);
         @SuppressWarnings("unchecked")
         java.util.Map<String, Object> link = (java.util.Map<String, Object>) r.summary().get("link");
@@ -64,6 +71,7 @@ class LinkSupervisionTest {
     void shouldDropAndCountStaleReplyAndCountItsMissingExchange() throws Exception {
         // reply to 20 held back until frame 23 left; 21 and 22 are answered meanwhile
         LoopResult r = run(seq -> seq == 20 ? EchoBoardLink.DELAY + 3 : EchoBoardLink.NORMAL, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.staleReplies);
         assertEquals(1, r.linkCounters.missingReplies, "exchange 20 ended without the reply to frame 20");
         assertEquals(100, r.linkCounters.repliesAccepted);
@@ -77,6 +85,7 @@ class LinkSupervisionTest {
         // reply to 30 arrives one exchange late, reply to 31 never: the late one is the newest
         LoopResult r = run(seq -> seq == 30 ? EchoBoardLink.DELAY + 1
                 : seq == 31 ? EchoBoardLink.DROP : EchoBoardLink.NORMAL, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.lateReplies);
         assertEquals(2, r.linkCounters.missingReplies);
         assertEquals(0, r.linkCounters.staleReplies);
@@ -93,6 +102,7 @@ class LinkSupervisionTest {
         LoopResult r = run(seq -> seq == 40 ? EchoBoardLink.NAN_DUTY
                 : seq == 41 ? EchoBoardLink.DUTY_OUT_OF_RANGE
                 : seq == 42 ? EchoBoardLink.PITCH_OUT_OF_RANGE : EchoBoardLink.NORMAL, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(3, r.linkCounters.invalidReferences);
         assertEquals(97, r.repliesApplied);
         assertEquals(3, r.linkCounters.missingReplies, "a rejected reply is no reply");
@@ -113,6 +123,7 @@ class LinkSupervisionTest {
     @Test
     void shouldRejectReplyToFrameNeverSent() throws Exception {
         LoopResult r = run(seq -> seq == 50 ? EchoBoardLink.FUTURE_SEQUENCE : EchoBoardLink.NORMAL, 100);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.invalidReferences);
         assertEquals(1, r.linkCounters.missingReplies);
     }
@@ -121,6 +132,7 @@ class LinkSupervisionTest {
     void shouldTripPlantAndBlockConvertersWhenBoardFallsSilent() throws Exception {
         // 20 ms watchdog at 50 us = 400 exchanges; the board stops answering after frame 100
         LoopResult r = run(seq -> seq > 100 ? EchoBoardLink.DROP : EchoBoardLink.NORMAL, 1000);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.watchdogTrips);
         assertEquals(1, plant.forceTripCalls);
         assertEquals(SensorView.TRIP_LINK_WATCHDOG, r.tripFlags & SensorView.TRIP_LINK_WATCHDOG);
@@ -140,6 +152,7 @@ class LinkSupervisionTest {
     void shouldStopOnWatchdogTripWhenStopOnTrip() throws Exception {
         LoopResult r = run(seq -> seq > 10 ? EchoBoardLink.DROP : EchoBoardLink.NORMAL, 10_000,
                 LoopFixtures.offline(1, 10_000).stopOnTrip(true).watchdogNs(1_000_000));
+        assertEveryExchangeAccounted(r);
         assertEquals(LoopResult.StopReason.PLANT_TRIP, r.stopReason);
         assertEquals(31, r.exchanges, "20 exchanges of 50 us after the last reply at exchange 10, then stop");
         assertEquals(1, r.linkCounters.watchdogTrips);
@@ -148,6 +161,7 @@ class LinkSupervisionTest {
     @Test
     void shouldTripWatchdogWhenBoardNeverAnswers() throws Exception {
         LoopResult r = run(seq -> EchoBoardLink.DROP, 1000);
+        assertEveryExchangeAccounted(r);
         assertEquals(1, r.linkCounters.watchdogTrips);
         assertEquals(0, r.repliesApplied);
         assertEquals(1000, r.linkCounters.missingReplies);

@@ -218,4 +218,70 @@ class RealTimeLoopTest {
         assertTrue(r.overruns >= 90, "overruns " + r.overruns);
         assertTrue(r.latenessNs.getMaxValue() >= 4_900_000, "max lateness " + r.latenessNs.getMaxValue());
     }
+
+    @Test
+    void shouldAbortLoopWhenCallerIsInterrupted() throws Exception {
+        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+        LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).realTime(true).build();
+        RealTimeLoop loop = new RealTimeLoop(cfg, plant, new EchoBoardLink(), null, List.of(), SampleLayout.of(plant));
+        LoopResult[] result = new LoopResult[1];
+        boolean[] flagAfter = new boolean[1];
+        Thread caller = new Thread(() -> {
+            try {
+                result[0] = loop.run();
+                flagAfter[0] = Thread.currentThread().isInterrupted();
+            } catch (InterruptedException e) {
+                throw new AssertionError(e);
+            }
+        });
+        caller.start();
+        while (loop.timings().snapshot().exchanges() < 100) {
+            Thread.sleep(1);
+        }
+        caller.interrupt();
+        caller.join(10_000);
+        assertFalse(caller.isAlive());
+        assertEquals(LoopResult.StopReason.ABORTED, result[0].stopReason);
+        assertEquals("caller interrupted", result[0].stopDetail);
+        assertTrue(flagAfter[0], "the interrupt is handed back to the caller");
+    }
+
+    @Test
+    void shouldEndEveryRunWhenStoppedDuringATimingSwap() {
+        // the timing reader flips recorders every 10 ms at the start of a run; HdrHistogram's flip
+        // sleeps and swallows interrupts, so a reader stopped only by interrupt could hang run()
+        org.junit.jupiter.api.Assertions.assertTimeoutPreemptively(java.time.Duration.ofSeconds(120), () -> {
+            for (int i = 0; i < 200; i++) {
+                FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+                // offline: the writer records flat out, so flips often wait for it (and sleep)
+                LoopConfig cfg = LoopFixtures.offline(1, 20_000 + i).ringSize(2).offlineBackpressure(false).build();
+                LoopResult r = LoopFixtures.run(cfg, plant, new EchoBoardLink(), null, List.of());
+                assertEquals(20_000 + i, r.exchanges);
+            }
+        });
+    }
+
+    @Test
+    void shouldPinLoopThreadToRequestedCpu() throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(java.nio.file.Files.isExecutable(java.nio.file.Path.of("/usr/bin/taskset")),
+                "taskset (util-linux) is needed for pinning");
+        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+        String[] allowed = new String[1];
+        LoopConfig cfg = LoopFixtures.offline(1, 10).pinCpu(0).build();
+        LoopResult r = LoopFixtures.run(cfg, plant, new EchoBoardLink(), (step, p) -> {
+            if (step == 0) { // test only: reads a file on the loop thread once
+                try {
+                    for (String line : java.nio.file.Files.readAllLines(java.nio.file.Path.of("/proc/thread-self/status"))) {
+                        if (line.startsWith("Cpus_allowed_list:")) {
+                            allowed[0] = line.substring(line.indexOf(':') + 1).trim();
+                        }
+                    }
+                } catch (java.io.IOException e) {
+                    throw new java.io.UncheckedIOException(e);
+                }
+            }
+        }, List.of());
+        assertTrue(r.pinning.startsWith("pinned to CPU 0"), r.pinning);
+        assertEquals("0", allowed[0]);
+    }
 }

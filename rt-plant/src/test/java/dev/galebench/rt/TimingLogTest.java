@@ -86,4 +86,35 @@ class TimingLogTest {
         assertEquals(10_000, loop.linkCountersSnapshot().framesSent - 1);
         org.junit.jupiter.api.Assertions.assertThrows(IllegalArgumentException.class, () -> loop.timings().histogram("x"));
     }
+
+    @Test
+    void shouldMergeRunsMadeOneAfterTheOtherIntoOneResultAndOneLog(@TempDir Path dir) throws Exception {
+        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
+        EchoBoardLink link = new EchoBoardLink(seq -> seq == 7 ? EchoBoardLink.DROP : EchoBoardLink.NORMAL);
+        long base = System.currentTimeMillis();
+        java.util.List<LoopResult> parts = new java.util.ArrayList<>();
+        for (int round = 0; round < 3; round++) {
+            link.counters().reset();
+            LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).durationSteps(2000).realTime(true).build();
+            parts.add(new RealTimeLoop(cfg, plant, link, null, List.of(), SampleLayout.of(plant))
+                    .timingLogBaseTimeMs(base).run());
+        }
+        LoopResult m = LoopResult.merge(parts);
+        assertEquals(6000, m.exchanges);
+        assertEquals(6000, m.latenessNs.getTotalCount());
+        assertEquals(3, m.linkCounters.missingReplies, "frame 7 of each round was dropped");
+        assertEquals(parts.get(0).overruns + parts.get(1).overruns + parts.get(2).overruns, m.overruns);
+        Path file = dir.resolve("timing.hlog");
+        m.writeTimingLog(file);
+        long lateness = 0;
+        try (HistogramLogReader reader = new HistogramLogReader(file.toFile())) {
+            EncodableHistogram e;
+            while ((e = reader.nextIntervalHistogram()) != null) {
+                if ("lateness".equals(e.getTag())) {
+                    lateness += ((Histogram) e).getTotalCount();
+                }
+            }
+        }
+        assertEquals(6000, lateness);
+    }
 }

@@ -27,6 +27,7 @@ import java.io.PrintWriter;
 import java.net.InetAddress;
 import java.net.InetSocketAddress;
 import java.nio.file.Path;
+import java.util.ArrayList;
 import java.util.List;
 import java.util.concurrent.Callable;
 
@@ -34,7 +35,9 @@ import java.util.concurrent.Callable;
  * {@code galebench preflight}: is this machine punctual enough for a step of N us? Measures the
  * busy-spin floor (a thread spinning to t0 + k h with nothing else to do), then runs the real
  * loop for the same time with the default turbine and a board, and prints both side by side
- * with a verdict judged as ratios to the floor ({@link PreflightVerdict}).
+ * with a verdict judged as ratios to the floor ({@link PreflightVerdict}). Floor and loop
+ * alternate in rounds (default one round per 5 s of each), so both see the same moods of a
+ * machine whose speed changes by the minute; the results of the rounds are merged.
  *
  * <p>Default board: the virtual board started inside this JVM on its own thread, answering over
  * a real UDP socket pair on loopback (127.0.0.1). That exercises the same link code, socket
@@ -72,6 +75,10 @@ public final class PreflightCommand implements Callable<Integer> {
             description = "Pin the spinning threads to this CPU (Linux, taskset); -1 = no pinning (default).")
     int pinCpu;
 
+    @Option(names = "--rounds", paramLabel = "N", defaultValue = "0",
+            description = "Alternate floor and loop in N rounds of S/N seconds each, so both see the machine's same moods (default 0: one round per 5 s).")
+    int rounds;
+
     @Option(names = "--hlog", paramLabel = "FILE", description = "Also write the loop's timing interval log here.")
     Path hlog;
 
@@ -94,10 +101,20 @@ public final class PreflightCommand implements Callable<Integer> {
             err.println("galebench preflight: --pin-cpu " + pinCpu + " must be >= -1");
             return 2;
         }
+        if (rounds < 0 || rounds > 10_000) {
+            err.println("galebench preflight: --rounds " + rounds + " is out of range [0, 10000]");
+            return 2;
+        }
         final long stepNs = stepUs * 1_000;
         final long durationNs = (long) (seconds * 1e9);
         if (durationNs < stepNs) {
             err.println("galebench preflight: --seconds " + seconds + " is shorter than one step");
+            return 2;
+        }
+        final int n = rounds > 0 ? rounds : (int) Math.max(1, Math.ceil(seconds / SECONDS_PER_ROUND));
+        final long roundSteps = durationNs / stepNs / n;
+        if (roundSteps < 1) {
+            err.println("galebench preflight: --rounds " + n + " leaves less than one step per round");
             return 2;
         }
         final TurbineParameters params = TurbineFile.defaults();
@@ -129,20 +146,28 @@ public final class PreflightCommand implements Callable<Integer> {
             return 2;
         }
         try {
-            final SpinFloor.Result floor = SpinFloor.measure(stepNs, durationNs, pinCpu);
             final TurbinePlant plant = new TurbinePlant(params, stepNs);
             plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
             final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
-                    .durationSteps(durationNs / stepNs).realTime(true).pinCpu(pinCpu)
+                    .durationSteps(roundSteps).realTime(true).pinCpu(pinCpu)
                     .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
-            final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, null, List.of(new Discard()),
-                    SampleLayout.of(plant));
-            final LoopResult result = loop.run();
+            final long baseMs = System.currentTimeMillis();
+            final List<SpinFloor.Result> floors = new ArrayList<>();
+            final List<LoopResult> loops = new ArrayList<>();
+            for (int round = 0; round < n; round++) {
+                floors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu));
+                drain(link);
+                link.counters().reset();
+                loops.add(new RealTimeLoop(cfg, plant, link, null, List.of(new Discard()), SampleLayout.of(plant))
+                        .timingLogBaseTimeMs(baseMs).run());
+            }
+            final SpinFloor.Result floor = mergeFloors(floors);
+            final LoopResult result = LoopResult.merge(loops);
             if (hlog != null) {
                 result.writeTimingLog(hlog);
             }
             final PreflightVerdict verdict = PreflightVerdict.judge(floor, result);
-            final PreflightReport report = new PreflightReport(stepUs, seconds, boardText, floor, result, verdict);
+            final PreflightReport report = new PreflightReport(stepUs, seconds, n, boardText, floor, result, verdict);
             out.print(json ? report.json() + System.lineSeparator() : report.text());
             out.flush();
             return verdict.sustainable() ? 0 : 1;
@@ -153,6 +178,35 @@ public final class PreflightCommand implements Callable<Integer> {
                 boardThread.join(2000);
             }
         }
+    }
+
+    /** Seconds of floor plus seconds of loop per round when --rounds is not given. */
+    static final double SECONDS_PER_ROUND = 5.0;
+
+    /** Reads and drops whatever the link still holds (a reply in flight from the previous round). */
+    private static void drain(BoardLink link) throws InterruptedException {
+        Thread.sleep(2);
+        final dev.galebench.plant.BoardCommand scratch = new dev.galebench.plant.BoardCommand();
+        for (int i = 0; i < 1000 && link.poll(scratch) != BoardLink.POLL_EMPTY; i++) {
+            Thread.onSpinWait();
+        }
+    }
+
+    private static SpinFloor.Result mergeFloors(List<SpinFloor.Result> floors) {
+        final SpinFloor.Result first = floors.get(0);
+        final org.HdrHistogram.Histogram h = first.latenessNs().copy();
+        long ticks = 0, stalls = 0, gaps = 0, maxGap = 0;
+        for (int i = 0; i < floors.size(); i++) {
+            final SpinFloor.Result f = floors.get(i);
+            if (i > 0) {
+                h.add(f.latenessNs());
+            }
+            ticks += f.ticks();
+            stalls += f.stalls();
+            gaps += f.clockGaps();
+            maxGap = Math.max(maxGap, f.maxClockGapNs());
+        }
+        return new SpinFloor.Result(first.stepPeriodNs(), ticks, stalls, gaps, maxGap, h, first.pinning());
     }
 
     private static String defaultController() {

@@ -22,15 +22,17 @@ import java.util.Locale;
 public final class PreflightReport {
     private final long stepUs;
     private final double seconds;
+    private final int rounds;
     private final String board;
     private final SpinFloor.Result floor;
     private final LoopResult loop;
     private final PreflightVerdict verdict;
 
-    public PreflightReport(long stepUs, double seconds, String board, SpinFloor.Result floor, LoopResult loop,
-                           PreflightVerdict verdict) {
+    public PreflightReport(long stepUs, double seconds, int rounds, String board, SpinFloor.Result floor,
+                           LoopResult loop, PreflightVerdict verdict) {
         this.stepUs = stepUs;
         this.seconds = seconds;
+        this.rounds = rounds;
         this.board = board;
         this.floor = floor;
         this.loop = loop;
@@ -43,6 +45,7 @@ public final class PreflightReport {
         ObjectNode root = om.createObjectNode();
         root.put("step_us", stepUs);
         root.put("seconds", seconds);
+        root.put("rounds", rounds);
         ObjectNode f = root.putObject("floor");
         putPercentiles(f.putObject("lateness_us"), floor.latenessNs());
         f.put("stalls", floor.stalls());
@@ -60,6 +63,7 @@ public final class PreflightReport {
         l.put("late_replies", loop.linkCounters.lateReplies);
         l.put("watchdog_trips", loop.linkCounters.watchdogTrips);
         l.put("stop", loop.stopReason.name());
+        l.put("trip_flags", loop.tripFlags);
         root.put("board", board);
         root.put("pinning", loop.pinning);
         root.put("sustainable", verdict.sustainable());
@@ -86,7 +90,8 @@ public final class PreflightReport {
     /** The human-readable table. */
     public String text() {
         StringBuilder sb = new StringBuilder();
-        sb.append(String.format(Locale.ROOT, "galebench preflight: step %d us, %.1f s of floor then %.1f s of loop%n", stepUs, seconds, seconds));
+        sb.append(String.format(Locale.ROOT, "galebench preflight: step %d us, %.1f s of floor and %.1f s of loop, alternating in %d round(s)%n",
+                stepUs, seconds, seconds, rounds));
         sb.append("board: ").append(board).append('\n');
         sb.append("pinning: ").append(loop.pinning).append('\n');
         sb.append(String.format(Locale.ROOT, "%-22s %14s %14s %14s%n", "", "floor lateness", "loop lateness", "loop rtt"));

@@ -44,6 +44,7 @@ class PreflightCommandTest {
             assertTrue(j.get("loop").get("rtt_us").has(p), p);
         }
         assertTrue(j.get("floor").get("stalls").asLong() >= 0);
+        assertEquals(1, j.get("rounds").asInt(), "one round per 5 s by default");
         assertEquals(8000, j.get("floor").get("ticks").asLong());
         assertEquals(8000, j.get("loop").get("exchanges").asLong());
         assertTrue(j.get("loop").get("overruns").asLong() >= 0);
@@ -79,5 +80,19 @@ class PreflightCommandTest {
         assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "0.1", "--controller", "nosuch"));
         assertTrue(err.toString().contains("nosuch"), err.toString());
         assertEquals(2, run(new StringWriter(), new StringWriter(), "preflight", "--seconds", "abc"));
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "0.001", "--rounds", "1000"));
+        assertTrue(err.toString().contains("--rounds"), err.toString());
+    }
+
+    @Test
+    void shouldAlternateFloorAndLoopInRounds() throws Exception {
+        StringWriter out = new StringWriter();
+        int code = run(out, new StringWriter(), "preflight", "--seconds", "0.6", "--rounds", "3", "--json");
+        JsonNode j = new ObjectMapper().readTree(out.toString());
+        assertEquals(3, j.get("rounds").asInt());
+        assertEquals(12_000, j.get("floor").get("ticks").asLong());
+        assertEquals(12_000, j.get("loop").get("exchanges").asLong());
+        assertEquals(j.get("sustainable").asBoolean() ? 0 : 1, code);
     }
 }
