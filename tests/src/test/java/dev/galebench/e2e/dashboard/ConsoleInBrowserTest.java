@@ -26,6 +26,59 @@ class ConsoleInBrowserTest {
     private static final Path ARTIFACTS = Path.of("target", "dashboard-e2e");
 
     @Test
+    void shouldAskForTheTokenAndOfferViewersNoControls() throws Exception {
+        Assumptions.assumeTrue(HeadlessChromium.available(), "needs /usr/bin/chromium and /usr/bin/chromedriver");
+        Path runs = Files.createTempDirectory("galebench-e2e-runs");
+        String token = "bench-token-4711";
+        try (ServedBench bench = new ServedBench(runs, "--token", token, "--allow-viewers");
+             HeadlessChromium owner = new HeadlessChromium(1400, 900);
+             HeadlessChromium visitor = new HeadlessChromium(1400, 900)) {
+            // a viewer without the token watches read-only: live, but every control disabled
+            WebDriver view = visitor.driver();
+            view.get(bench.url());
+            WebDriverWait viewWait = new WebDriverWait(view, Duration.ofSeconds(30));
+            viewWait.until(d -> "live".equals(d.findElement(By.id("conn-text")).getText()));
+            assertEquals("read-only", view.findElement(By.id("role")).getText());
+            viewWait.until(d -> !d.findElements(By.cssSelector("#seq-list button[data-sequence]")).isEmpty());
+            assertTrue(view.findElements(By.cssSelector("#seq-list button[data-sequence]")).stream().noneMatch(WebElement::isEnabled));
+            assertTrue(view.findElements(By.cssSelector("#bench-card button")).stream().noneMatch(WebElement::isEnabled));
+
+            // the owner opens the page with the token in the address and may act
+            WebDriver page = owner.driver();
+            page.get(bench.url() + "?token=" + token);
+            WebDriverWait wait = new WebDriverWait(page, Duration.ofSeconds(30));
+            wait.until(d -> "live".equals(d.findElement(By.id("conn-text")).getText()));
+            assertEquals("control", page.findElement(By.id("role")).getText());
+            WebElement level = page.findElement(By.id("voltage-level"));
+            level.clear();
+            level.sendKeys("0.5");
+            page.findElement(By.cssSelector("#voltage-form button")).click();
+            wait.until(d -> d.findElement(By.cssSelector("#log li")).getText().contains("dip: source 0.500 pu"));
+            // and the viewer sees the owner's control in its log
+            viewWait.until(d -> d.findElement(By.cssSelector("#log li")).getText().contains("dip: source 0.500 pu"));
+        }
+    }
+
+    @Test
+    void shouldPromptForTheTokenWhenTheSocketIsRefused() throws Exception {
+        Assumptions.assumeTrue(HeadlessChromium.available(), "needs /usr/bin/chromium and /usr/bin/chromedriver");
+        Path runs = Files.createTempDirectory("galebench-e2e-runs");
+        String token = "bench-token-0815";
+        try (ServedBench bench = new ServedBench(runs, "--token", token);
+             HeadlessChromium chromium = new HeadlessChromium(1400, 900)) {
+            WebDriver page = chromium.driver();
+            page.get(bench.url());
+            WebDriverWait wait = new WebDriverWait(page, Duration.ofSeconds(30));
+            wait.until(d -> d.findElement(By.id("token-bar")).isDisplayed());
+            assertEquals("refused", page.findElement(By.id("conn-text")).getText());
+            page.findElement(By.id("token-input")).sendKeys(token);
+            page.findElement(By.cssSelector("#token-form button")).click();
+            wait.until(d -> "live".equals(d.findElement(By.id("conn-text")).getText()));
+            assertEquals("control", page.findElement(By.id("role")).getText());
+        }
+    }
+
+    @Test
     void shouldShowTheLivePlantAndDriveItFromThePage() throws Exception {
         Assumptions.assumeTrue(HeadlessChromium.available(), "needs /usr/bin/chromium and /usr/bin/chromedriver");
         Path runs = Files.createTempDirectory("galebench-e2e-runs");
