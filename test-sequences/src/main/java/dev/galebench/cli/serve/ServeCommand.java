@@ -25,9 +25,11 @@ import java.util.concurrent.TimeUnit;
  * options (named in the message).
  */
 @Command(name = "serve", mixinStandardHelpOptions = true,
-        description = {"Interactive bench with the live web console: the plant runs in real time against the board,",
-            "the browser shows live plots, loop timing and link counters, starts sequences and drives the bench",
-            "(wind, dip/swell, voltage-deviation reference, link faults). Every control is logged in the session folder."})
+        description = {"Interactive bench with the live web console: the plant runs in real time against the board; "
+                + "the browser shows live plots, loop timing and link counters, starts library sequences and drives the "
+                + "bench (wind, dip/swell, voltage-deviation reference, link faults). Every control is logged in the "
+                + "session folder.",
+            "Exit codes: 0 after a normal stop, 2 for bad options."})
 public final class ServeCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
