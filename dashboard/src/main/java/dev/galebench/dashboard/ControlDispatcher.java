@@ -50,6 +50,10 @@ final class ControlDispatcher implements AutoCloseable {
         this.bench = b;
     }
 
+    BenchControl bench() {
+        return bench;
+    }
+
     /** Handles one text message from a socket whose role is {@code role}. */
     void onMessage(Channel ch, Access.Role role, String text) {
         JsonNode m;
@@ -108,7 +112,7 @@ final class ControlDispatcher implements AutoCloseable {
                 r = ControlResult.refused("bench gave no answer");
             }
         }
-        hub.log("control", req.describe + " -> " + r.message(), r.accepted());
+        hub.log("control", r.message().startsWith(req.describe) ? r.message() : req.describe + " -> " + r.message(), r.accepted());
         ack(ch, id, r.accepted(), r.message());
     }
 

@@ -112,6 +112,11 @@ public final class Dashboard implements AutoCloseable {
         refreshBench(bench);
     }
 
+    /** The bench the console's controls go to now (null: none). */
+    public BenchControl currentBench() {
+        return dispatcher.bench();
+    }
+
     /** Re-reads the sequence list and control capabilities from {@code bench}. */
     public void refreshBench(BenchControl bench) {
         if (bench != null) {
@@ -125,7 +130,15 @@ public final class Dashboard implements AutoCloseable {
 
     /** A sequence began; clears the verdict list of every console. */
     public void sequenceStarted(String sequence, String runId) {
-        hub.sequenceStarted(sequence, runId);
+        hub.sequenceStarted(sequence, runId, List.of());
+    }
+
+    /**
+     * A sequence began whose checks are {@code checkNames}: consoles list them as pending until
+     * their verdicts arrive (checks that judge the whole run decide when it ends).
+     */
+    public void sequenceStarted(String sequence, String runId, List<String> checkNames) {
+        hub.sequenceStarted(sequence, runId, checkNames);
     }
 
     /** A check's verdict fell at plant time {@code plantTimeS} (NaN if not known). */
@@ -169,6 +182,11 @@ public final class Dashboard implements AutoCloseable {
     /** Data batches not sent to a slow viewer (its socket buffer was full). */
     public long slowViewerSkips() {
         return hub.slowViewerSkips();
+    }
+
+    /** CPU time of the feed during the last complete stream, ns (-1 before one ended). */
+    public long feedCpuNs() {
+        return feed.lastStreamCpuNs();
     }
 
     /** Number of the newest data batch published (0 before the first). */

@@ -66,6 +66,9 @@ public final class DecimatingFeed implements SampleConsumer {
     private long samplesSeen;
     private long timingSourceErrors;
     private volatile boolean streaming;
+    private long streamCpuStartNs;
+    private volatile long lastStreamCpuNs = -1;
+    private static final java.lang.management.ThreadMXBean THREADS = java.lang.management.ManagementFactory.getThreadMXBean();
 
     DecimatingFeed(TelemetryHub hub, List<String> plotSignals, long bucketNs, TimingSource timingSource) {
         this.hub = hub;
@@ -126,6 +129,7 @@ public final class DecimatingFeed implements SampleConsumer {
         roundTrip.reset();
         lastFlushWallNs = System.nanoTime();
         lastTimingWallNs = lastFlushWallNs;
+        streamCpuStartNs = THREADS.getCurrentThreadCpuTime();
         hub.startStream(names.toArray(new String[0]), units.toArray(new String[0]),
                 bucketExchanges * exchangePeriodNs * 1e-9, exchangePeriodNs * 1e-9);
         streaming = true;
@@ -179,6 +183,15 @@ public final class DecimatingFeed implements SampleConsumer {
         publishTiming(samplesMissed);
         streaming = false;
         hub.endStream(samplesMissed);
+        lastStreamCpuNs = THREADS.getCurrentThreadCpuTime() - streamCpuStartNs;
+    }
+
+    /**
+     * CPU time the feed used on its consumer thread during the last complete stream, ns (-1 before
+     * one ended): what the console costs the machine besides the network thread.
+     */
+    public long lastStreamCpuNs() {
+        return lastStreamCpuNs;
     }
 
     private static void record(Histogram h, double us) {

@@ -204,9 +204,14 @@ final class TelemetryHub {
         broadcast(m.toString());
     }
 
-    synchronized void sequenceStarted(String sequence, String runId) {
+    synchronized void sequenceStarted(String sequence, String runId, List<String> checks) {
         verdictMessages.clear();
-        runMessage = runState("running", sequence, runId, null, null);
+        ObjectNode m = runStateNode("running", sequence, runId, null, null);
+        ArrayNode pending = m.putArray("checks");
+        for (String c : checks) {
+            pending.add(c);
+        }
+        runMessage = m.toString();
         broadcast(runMessage);
     }
 
@@ -285,6 +290,10 @@ final class TelemetryHub {
     }
 
     private String runState(String state, String sequence, String runId, String reportUrl, String endedAt) {
+        return runStateNode(state, sequence, runId, reportUrl, endedAt).toString();
+    }
+
+    private ObjectNode runStateNode(String state, String sequence, String runId, String reportUrl, String endedAt) {
         ObjectNode m = message("run");
         m.put("state", state);
         if (sequence != null) {
@@ -299,7 +308,7 @@ final class TelemetryHub {
         if (endedAt != null) {
             m.put("endedAt", endedAt);
         }
-        return m.toString();
+        return m;
     }
 
     private void broadcast(String message) {

@@ -209,6 +209,33 @@ class FeedOverWebSocketTest {
         }
     }
 
+    @Test
+    void shouldShowPendingChecksThenVerdictsThenTheReportAlsoToLateViewers() throws Exception {
+        Dashboard d = start(null);
+        java.nio.file.Path dir = java.nio.file.Files.createTempDirectory("galebench-run");
+        try (ConsoleClient early = ConsoleClient.open(d.port(), "")) {
+            early.await("hello");
+            awaitViewers(d, 1);
+            d.sequenceStarted("dip-3ph-deep", "run-1", List.of("iq-rise", "dc-band"));
+            JsonNode running = early.await("run", m -> "running".equals(m.get("state").asText()), 5000);
+            assertEquals("dip-3ph-deep", running.get("sequence").asText());
+            assertEquals(2, running.get("checks").size());
+            d.verdict(new Verdict("iq-rise", "rise_time", true, "18 ms", "<= 30 ms", "in time"), 1.03);
+            d.verdict(new Verdict("dc-band", "band", false, "1402 V", "<= 1350 V", "left the band"), 2.5);
+            d.sequenceFinished("dip-3ph-deep", "run-1", "failed", dir, null);
+            assertEquals("iq-rise", early.await("verdict").get("name").asText());
+            assertFalse(early.await("verdict").get("passed").asBoolean());
+            JsonNode done = early.await("run", m -> "failed".equals(m.get("state").asText()), 5000);
+            assertEquals("/runs/run-1/report.html", done.get("report").asText());
+        }
+        try (ConsoleClient late = ConsoleClient.open(d.port(), "")) {
+            JsonNode run = late.await("run");
+            assertEquals("failed", run.get("state").asText(), "a late viewer sees how the run ended");
+            assertTrue(late.await("verdict", m -> "iq-rise".equals(m.get("name").asText()), 5000).get("passed").asBoolean());
+            assertEquals(2.5, late.await("verdict", m -> "dc-band".equals(m.get("name").asText()), 5000).get("tS").asDouble());
+        }
+    }
+
     static void awaitViewers(Dashboard d, int n) throws InterruptedException {
         long deadline = System.nanoTime() + 5_000_000_000L;
         while (d.viewerCount() != n) {

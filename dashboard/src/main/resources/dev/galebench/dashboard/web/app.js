@@ -141,13 +141,21 @@
     scheduleRedraw();
   }
 
+  // Redraw at most every REDRAW_MS and only when the tab is visible: drawing six plots is the
+  // page's main cost, and a browser on the bench PC shares its CPU with the real-time loop.
+  var REDRAW_MS = 200;
+  var lastRedraw = 0;
   function scheduleRedraw() {
     if (state.redrawPending) { return; }
     state.redrawPending = true;
-    requestAnimationFrame(function () {
-      state.redrawPending = false;
-      panels.forEach(function (p) { if (p.plot) { p.plot.setData(p.data); } });
-    });
+    var wait = Math.max(0, REDRAW_MS - (Date.now() - lastRedraw));
+    setTimeout(function () {
+      requestAnimationFrame(function () {
+        state.redrawPending = false;
+        lastRedraw = Date.now();
+        panels.forEach(function (p) { if (p.plot) { p.plot.setData(p.data); } });
+      });
+    }, wait);
   }
 
   // ---------- timing and link ----------
@@ -241,7 +249,19 @@
       a.href = m.report + (state.token ? '?token=' + encodeURIComponent(state.token) : '');
       a.hidden = false;
     } else { a.hidden = true; }
-    if (m.state === 'running') { $('verdicts').innerHTML = '<li class="muted">no checks yet</li>'; tally(); }
+    if (m.state === 'running') {
+      var ul = $('verdicts');
+      ul.innerHTML = '';
+      (m.checks || []).forEach(function (name) {
+        var li = document.createElement('li');
+        li.dataset.check = name; li.dataset.pending = 'true';
+        li.innerHTML = '<div class="v-head"><span class="v-name"></span><span class="v-mark">PENDING</span></div>';
+        li.querySelector('.v-name').textContent = name;
+        ul.appendChild(li);
+      });
+      if (!ul.children.length) { ul.innerHTML = '<li class="muted">no checks yet</li>'; }
+      tally();
+    }
     applyPermissions();
   }
 
@@ -249,15 +269,16 @@
     var ul = $('verdicts');
     var placeholder = ul.querySelector('.muted');
     if (placeholder) { placeholder.remove(); }
-    var li = document.createElement('li');
+    var li = null;
+    ul.querySelectorAll('li[data-pending]').forEach(function (p) { if (!li && p.dataset.check === m.name) { li = p; } });
+    if (li) { delete li.dataset.pending; } else { li = document.createElement('li'); ul.appendChild(li); }
     li.dataset.passed = String(m.passed);
     li.dataset.check = m.name;
     li.innerHTML = '<div class="v-head"><span class="v-name"></span><span class="v-mark"></span></div><div class="v-body"></div>';
     li.querySelector('.v-name').textContent = m.name;
     li.querySelector('.v-mark').textContent = m.passed ? 'PASS' : 'FAIL';
     li.querySelector('.v-body').textContent = m.measured + ' (required ' + m.required + ')' +
-      (m.tS != null ? ' at ' + fmt(m.tS, 2) + ' s' : '') + (m.passed ? '' : ' \u2014 ' + m.message);
-    ul.appendChild(li);
+      (m.tS != null ? ' \u00b7 window to ' + fmt(m.tS, 2) + ' s' : '') + (m.passed ? '' : ' \u2014 ' + m.message);
     tally();
   }
 

@@ -6,6 +6,7 @@ import dev.galebench.dashboard.ControlResult;
 import dev.galebench.dashboard.Dashboard;
 import dev.galebench.dashboard.SequenceInfo;
 import dev.galebench.dashboard.TimingSource;
+import dev.galebench.runner.SequenceRunner;
 import dev.galebench.link.BoardLinks;
 import dev.galebench.link.LinkFaults;
 import dev.galebench.link.LinkOptions;
@@ -21,6 +22,8 @@ import dev.galebench.sequence.Sequence;
 import dev.galebench.sequence.SequenceLibrary;
 
 import java.io.IOException;
+import java.io.OutputStream;
+import java.io.PrintStream;
 import java.io.UncheckedIOException;
 import java.io.Writer;
 import java.nio.charset.StandardCharsets;
@@ -32,6 +35,8 @@ import java.util.ArrayList;
 import java.util.Arrays;
 import java.util.List;
 import java.util.Locale;
+import java.util.concurrent.atomic.AtomicInteger;
+import java.util.concurrent.atomic.AtomicReference;
 
 /**
  * The bench behind {@code galebench serve}: owns the plant, the board link and the real-time
@@ -39,7 +44,12 @@ import java.util.Locale;
  *
  * <p>Between sequences the plant runs freely in real time (a loop "until aborted") from the
  * steady state at the current wind; bench controls go through a {@link BenchMailbox} into that
- * loop and take effect at the next plant step. Each accepted control is appended to
+ * loop and take effect at the next plant step. Starting a sequence ends the free run and runs
+ * the sequence with the project's {@link SequenceRunner} (same plant, checks, recorders and
+ * run folder as {@code galebench run}, under the session folder), the console's feed added as
+ * one more ring consumer; its verdicts and a link to its report go to every console, then the
+ * free run resumes. Bench controls are refused while a sequence runs: the sequence's schedule
+ * owns the plant's inputs then. Each accepted control is appended to
  * {@code controls.log} in the session folder with the wall time and the plant time at which
  * it took effect (the control thread waits up to {@value #APPLY_WAIT_MS} ms for the real-time
  * thread to apply it, so the log says when, not only that).
@@ -60,9 +70,10 @@ public final class ServeBench implements BenchControl, AutoCloseable {
      * @param controller     control law of the virtual board (one of the virtual board's names)
      * @param windMPerS      wind of the first free run, m/s
      * @param sessionDir     folder for {@code controls.log} and sequence runs
+     * @param holdAfterSequenceS how long a finished sequence's plots stay before the free run resumes, s
      */
     public record Settings(TurbineParameters turbine, long stepPeriodNs, String board, String controller,
-                           double windMPerS, Path sessionDir) {
+                           double windMPerS, Path sessionDir, double holdAfterSequenceS) {
     }
 
     private final Settings settings;
@@ -75,6 +86,10 @@ public final class ServeBench implements BenchControl, AutoCloseable {
     private volatile BenchMailbox mailbox;
     private volatile double windMPerS;
     private volatile String lastProblem = "";
+    private volatile long holdUntilNs;
+    private final AtomicReference<String> requested = new AtomicReference<>();
+    private final AtomicInteger runCount = new AtomicInteger();
+    private volatile String runningSequence;
 
     public ServeBench(Settings settings) {
         this.settings = settings;
@@ -116,6 +131,12 @@ public final class ServeBench implements BenchControl, AutoCloseable {
     private void benchLoop() {
         while (!closing) {
             try {
+                String next = requested.get();
+                if (next != null) {
+                    runSequence(next);
+                    holdAfterSequence();
+                    continue;
+                }
                 runFree();
             } catch (InterruptedException e) {
                 Thread.currentThread().interrupt();
@@ -126,6 +147,20 @@ public final class ServeBench implements BenchControl, AutoCloseable {
                 sleepQuietly(2000);
             }
         }
+    }
+
+    /**
+     * Keeps the finished sequence's waveforms on the consoles for {@code holdAfterSequenceS}
+     * before the free run (a new stream) replaces them; a start request or shutdown ends the
+     * hold at once.
+     */
+    private void holdAfterSequence() {
+        final long untilNs = System.nanoTime() + Math.round(settings.holdAfterSequenceS() * 1e9);
+        holdUntilNs = untilNs;
+        while (!closing && requested.get() == null && System.nanoTime() < untilNs) {
+            sleepQuietly(20);
+        }
+        holdUntilNs = 0;
     }
 
     private void runFree() throws InterruptedException {
@@ -145,7 +180,7 @@ public final class ServeBench implements BenchControl, AutoCloseable {
             logLine(String.format(Locale.ROOT, "free run started from the steady state at %.2f m/s", wind));
             LoopResult r;
             try {
-                if (closing) {
+                if (closing || requested.get() != null) {
                     return;
                 }
                 r = loop.run();
@@ -155,11 +190,65 @@ public final class ServeBench implements BenchControl, AutoCloseable {
             }
             logLine("free run ended: " + r.stopReason + (r.stopDetail.isEmpty() ? "" : " (" + r.stopDetail + ")")
                     + String.format(Locale.ROOT, ", %d exchanges, %d overruns", r.exchanges, r.overruns));
-            if (r.stopReason != LoopResult.StopReason.ABORTED && !closing) {
+            if (r.stopReason != LoopResult.StopReason.ABORTED && !closing && requested.get() == null) {
                 sleepQuietly(1000); // a run that ended by itself (trip, error): restart settled, not in a tight loop
             }
         } finally {
             link.close();
+        }
+    }
+
+    /** Runs the requested sequence with the project's runner and reports it to the consoles. */
+    private void runSequence(String name) {
+        final String runId = "run-" + runCount.incrementAndGet();
+        runningSequence = name;
+        try (PrintStream runnerLog = new PrintStream(new LineLog(), true, StandardCharsets.UTF_8)) {
+            Sequence seq = SequenceLibrary.load(name);
+            SequenceRunner.Options o = new SequenceRunner.Options();
+            o.board = settings.board();
+            o.outBase = settings.sessionDir();
+            o.progress = false;
+            o.err = runnerLog;
+            logLine("sequence " + name + " started (" + runId + ")");
+            SequenceRunner.Result r = WatchedRun.run(dashboard, runId, seq, o);
+            String outcome = r.abortReason() != null ? "aborted" : r.passed() ? "passed" : "failed";
+            logLine("sequence " + name + " " + outcome + (r.abortReason() == null ? "" : " (" + r.abortReason() + ")")
+                    + "; run folder " + r.folder());
+        } catch (InterruptedException e) {
+            Thread.currentThread().interrupt();
+            logLine("sequence " + name + " interrupted");
+        } catch (Exception e) {
+            logLine("sequence " + name + " could not run: " + e.getMessage());
+        } finally {
+            runningSequence = null;
+            requested.set(null);
+            dashboard.bench(this); // the runner lent the console its watch-and-abort bench for the run
+        }
+    }
+
+    /** The runner's messages, one controls.log line each. */
+    private final class LineLog extends OutputStream {
+        private final java.io.ByteArrayOutputStream line = new java.io.ByteArrayOutputStream();
+
+        @Override
+        public void write(int b) {
+            if (b == '\n') {
+                flushLine();
+            } else if (b != '\r') {
+                line.write(b);
+            }
+        }
+
+        private void flushLine() {
+            if (line.size() > 0) {
+                logLine("runner: " + line.toString(StandardCharsets.UTF_8));
+                line.reset();
+            }
+        }
+
+        @Override
+        public void close() {
+            flushLine();
         }
     }
 
@@ -188,16 +277,38 @@ public final class ServeBench implements BenchControl, AutoCloseable {
 
     @Override
     public ControlResult startSequence(String name) {
-        return ControlResult.refused("sequence runs from the console are not available in this build");
+        if (sequences.stream().noneMatch(s -> s.name().equals(name))) {
+            return ControlResult.refused("no sequence named '" + name + "' in the library");
+        }
+        if (closing) {
+            return ControlResult.refused("the bench is shutting down");
+        }
+        if (!requested.compareAndSet(null, name)) {
+            return ControlResult.refused("sequence " + requested.get() + " is already running");
+        }
+        RealTimeLoop l = freeRun;
+        if (l != null) {
+            l.abort("sequence " + name + " starts");
+        }
+        logLine("start " + name + " requested from the console");
+        return ControlResult.ok("starting " + name);
     }
 
     @Override
     public ControlResult abort() {
-        return ControlResult.refused("no sequence is running");
+        String name = runningSequence;
+        if (name == null) {
+            return ControlResult.refused("no sequence is running");
+        }
+        // once its loop runs, the runner answers abort itself (its bench replaces this one on the console)
+        return ControlResult.refused("sequence " + name + " is still preparing (JIT warm-up); abort again in a moment");
     }
 
     @Override
     public ControlResult setWind(double w) {
+        if (runningSequence != null) {
+            return sequenceOwnsPlant();
+        }
         BenchMailbox m = mailbox;
         if (m == null) {
             return notRunning();
@@ -210,6 +321,9 @@ public final class ServeBench implements BenchControl, AutoCloseable {
 
     @Override
     public ControlResult voltageEvent(double levelPu, double durationS) {
+        if (runningSequence != null) {
+            return sequenceOwnsPlant();
+        }
         BenchMailbox m = mailbox;
         if (m == null) {
             return notRunning();
@@ -222,6 +336,9 @@ public final class ServeBench implements BenchControl, AutoCloseable {
 
     @Override
     public ControlResult stepVoltageDeviationReference(double referencePu) {
+        if (runningSequence != null) {
+            return sequenceOwnsPlant();
+        }
         BenchMailbox m = mailbox;
         if (m == null) {
             return notRunning();
@@ -237,6 +354,9 @@ public final class ServeBench implements BenchControl, AutoCloseable {
         if (kind < 0) {
             return ControlResult.refused("unknown link fault '" + fault + "' (known: " + String.join(", ", LinkFaultMenu.NAMES) + ")");
         }
+        if (runningSequence != null) {
+            return sequenceOwnsPlant();
+        }
         BenchMailbox m = mailbox;
         if (m == null) {
             return notRunning();
@@ -246,7 +366,16 @@ public final class ServeBench implements BenchControl, AutoCloseable {
         return applied(m, before, String.format(Locale.ROOT, "link fault %s for %.3f s", fault, durationS));
     }
 
+    private ControlResult sequenceOwnsPlant() {
+        return ControlResult.refused("sequence " + runningSequence + " is running; bench controls act between sequences");
+    }
+
     private ControlResult notRunning() {
+        long hold = holdUntilNs;
+        if (hold != 0) {
+            return ControlResult.refused(String.format(Locale.ROOT,
+                    "showing the last sequence; the free run resumes in %.0f s", Math.max(0, (hold - System.nanoTime()) * 1e-9)));
+        }
         return ControlResult.refused("the plant is not running right now" + (lastProblem.isEmpty() ? "" : ": " + lastProblem));
     }
 
@@ -292,6 +421,11 @@ public final class ServeBench implements BenchControl, AutoCloseable {
         if (l != null) {
             l.abort("bench closed");
         }
+        Dashboard d = dashboard;
+        if (runningSequence != null && d != null && d.currentBench() != this && d.currentBench() != null) {
+            d.currentBench().abort(); // the runner's own bench: stops the sequence's loop
+        }
+
         try {
             benchThread.join(15_000);
         } catch (InterruptedException e) {

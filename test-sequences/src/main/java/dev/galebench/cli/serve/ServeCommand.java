@@ -25,9 +25,11 @@ import java.util.concurrent.TimeUnit;
  * options (named in the message).
  */
 @Command(name = "serve", mixinStandardHelpOptions = true,
-        description = {"Interactive bench with the live web console: the plant runs in real time against the board,",
-            "the browser shows live plots, loop timing and link counters, starts sequences and drives the bench",
-            "(wind, dip/swell, voltage-deviation reference, link faults). Every control is logged in the session folder."})
+        description = {"Interactive bench with the live web console: the plant runs in real time against the board; "
+                + "the browser shows live plots, loop timing and link counters, starts library sequences and drives the "
+                + "bench (wind, dip/swell, voltage-deviation reference, link faults). Every control is logged in the "
+                + "session folder.",
+            "Exit codes: 0 after a normal stop, 2 for bad options."})
 public final class ServeCommand implements Callable<Integer> {
     @Spec
     CommandSpec spec;
@@ -62,6 +64,9 @@ public final class ServeCommand implements Callable<Integer> {
     @Option(names = "--runs", paramLabel = "DIR", description = "Folder for session logs and runs (default ${DEFAULT-VALUE}).")
     Path runsDir = Path.of("runs");
 
+    @Option(names = "--hold-s", paramLabel = "S", description = "After a sequence, keep its plots this long before the free run resumes (default ${DEFAULT-VALUE}).")
+    double holdS = 10.0;
+
     @Option(names = "--seconds", paramLabel = "S", description = "Stop after S seconds of wall time (default 0 = until interrupted).")
     double seconds;
 
@@ -89,6 +94,9 @@ public final class ServeCommand implements Callable<Integer> {
         if (!(windMPerS >= 0 && windMPerS <= 40)) {
             throw new IllegalArgumentException("--wind " + windMPerS + " is outside 0 .. 40 m/s");
         }
+        if (!(holdS >= 0 && holdS <= 3600)) {
+            throw new IllegalArgumentException("--hold-s " + holdS + " is outside 0 .. 3600 s");
+        }
         if (!(seconds >= 0)) {
             throw new IllegalArgumentException("--seconds must be 0 or more");
         }
@@ -100,7 +108,7 @@ public final class ServeCommand implements Callable<Integer> {
         }
         String stamp = ZonedDateTime.now(ZoneOffset.UTC).format(DateTimeFormatter.ofPattern("yyyyMMdd-HHmmss"));
         ServeBench bench = new ServeBench(new ServeBench.Settings(params, Math.round(stepUs * 1000), board, law, windMPerS,
-                runsDir.resolve("serve-" + stamp)));
+                runsDir.resolve("serve-" + stamp), holdS));
         CountDownLatch closed = new CountDownLatch(1);
         // On SIGTERM/Ctrl-C: wake the main thread and give it time to stop the loop and the server.
         Thread hook = new Thread(() -> {

@@ -104,6 +104,58 @@ class ServeCommandTest {
     }
 
     @Test
+    void shouldRunALibrarySequenceFromTheConsoleAbortItAndResumeTheBench(@TempDir Path runs) throws Exception {
+        ServeCommand serve = new ServeCommand();
+        CommandLine cl = new CommandLine(serve);
+        cl.setOut(new PrintWriter(new StringWriter(), true));
+        CompletableFuture<Integer> exit = CompletableFuture.supplyAsync(() ->
+                cl.execute("--port", "0", "--runs", runs.toString(), "--hold-s", "0"));
+        try {
+            long deadline = System.nanoTime() + TimeUnit.SECONDS.toNanos(20);
+            while (serve.port() < 0) {
+                assertTrue(System.nanoTime() < deadline, "serve did not start");
+                Thread.sleep(20);
+            }
+            LinkedBlockingQueue<JsonNode> inbox = new LinkedBlockingQueue<>();
+            WebSocket ws = HttpClient.newHttpClient().newWebSocketBuilder()
+                    .buildAsync(URI.create("ws://127.0.0.1:" + serve.port() + "/ws"), new Collector(inbox)).join();
+            assertTrue(await(inbox, "controls", m -> true).get("interactive").asBoolean());
+            ws.sendText("{\"type\":\"control\",\"id\":1,\"action\":\"start\",\"sequence\":\"wind-ramp-to-rated\"}", true).join();
+            assertTrue(await(inbox, "ack", m -> m.path("id").asInt() == 1).get("accepted").asBoolean());
+            JsonNode running = await(inbox, "run", m -> "running".equals(m.get("state").asText()));
+            assertEquals("wind-ramp-to-rated", running.get("sequence").asText());
+            assertTrue(running.get("checks").size() > 0, "the sequence's checks are listed as pending");
+            // once the sequence's loop runs, the runner's bench answers: not interactive, abort offered
+            await(inbox, "controls", m -> !m.get("interactive").asBoolean());
+            ws.sendText("{\"type\":\"control\",\"id\":2,\"action\":\"wind\",\"windMPerS\":12}", true).join();
+            assertTrue(!await(inbox, "ack", m -> m.path("id").asInt() == 2).get("accepted").asBoolean(),
+                    "bench controls are refused while a sequence owns the plant");
+            ws.sendText("{\"type\":\"control\",\"id\":3,\"action\":\"abort\"}", true).join();
+            assertTrue(await(inbox, "ack", m -> m.path("id").asInt() == 3).get("accepted").asBoolean());
+            assertTrue(await(inbox, "verdict", m -> true).has("passed"), "verdicts are published, then the end state");
+            JsonNode ended = await(inbox, "run", m -> !"running".equals(m.get("state").asText()));
+            assertEquals("aborted", ended.get("state").asText());
+            assertTrue(ended.get("report").asText().endsWith("/report.html"), ended.toString());
+            await(inbox, "controls", m -> m.get("interactive").asBoolean()); // the serve bench is back
+            await(inbox, "layout", m -> true); // and the free run streams again
+            ws.sendClose(WebSocket.NORMAL_CLOSURE, "bye").join();
+        } finally {
+            serve.stop();
+        }
+        assertEquals(0, exit.get(60, TimeUnit.SECONDS));
+        Path session;
+        try (Stream<Path> s = Files.list(runs)) {
+            session = s.findFirst().orElseThrow();
+        }
+        try (Stream<Path> s = Files.list(session)) {
+            assertTrue(s.anyMatch(p -> p.getFileName().toString().startsWith("wind-ramp-to-rated")
+                    && Files.isRegularFile(p.resolve("report.html"))));
+        }
+        String log = Files.readString(session.resolve("controls.log"));
+        assertTrue(log.contains("sequence wind-ramp-to-rated aborted"), log);
+    }
+
+    @Test
     void shouldRefuseNonLoopbackWithoutTokenWithExitCodeTwo() {
         StringWriter err = new StringWriter();
         CommandLine cl = dev.galebench.cli.GalebenchCommand.commandLine();

@@ -8,8 +8,14 @@ import dev.galebench.rt.LoopResult;
 import dev.galebench.rt.RealTimeLoop;
 import dev.galebench.rt.SampleConsumer;
 import dev.galebench.rt.SampleLayout;
-import dev.galebench.rt.support.EchoBoardLink;
-import dev.galebench.rt.support.FirstOrderTestPlant;
+import dev.galebench.board.BoardControllers;
+import dev.galebench.cli.serve.ServeBench;
+import dev.galebench.link.BoardLinks;
+import dev.galebench.plant.SteadyState;
+import dev.galebench.plant.TurbineFile;
+import dev.galebench.plant.TurbineParameters;
+import dev.galebench.plant.TurbinePlant;
+import dev.galebench.rt.BoardLink;
 import org.junit.jupiter.api.Assumptions;
 import org.junit.jupiter.api.Tag;
 import org.junit.jupiter.api.Test;
@@ -27,8 +33,9 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 /**
- * Measures what two open consoles cost the real-time loop: the same real-time run (50 us step,
- * in-process echo board) alternately without a console and with a console plus two headless
+ * Measures what two open consoles cost the real-time loop: the same real-time run (the
+ * built-in turbine from its steady state at 10 m/s, 50 us step, the in-process virtual board as
+ * {@code galebench serve} runs it) alternately without a console and with a console plus two headless
  * Chromium windows drawing it, and compares lateness percentiles in the same session. This is a
  * measurement, not a pass/fail on time: it asserts only outcomes (every exchange done, browsers
  * received data) and writes the numbers to {@code target/console-load.txt}; the result is
@@ -45,7 +52,8 @@ class ConsoleLoadOnLoopSoakTest {
         ClassLoader.getSystemClassLoader().setPackageAssertionStatus("com.lmax.disruptor", false);
     }
 
-    private static final long STEP_NS = 50_000;
+    private final StringBuilder consoleCpu = new StringBuilder();
+    private static final long STEP_NS = Math.round(Double.parseDouble(System.getProperty("galebench.load.stepUs", "50")) * 1000);
 
     @Test
     void shouldMeasureLoopLatenessWithAndWithoutTwoOpenConsoles() throws Exception {
@@ -53,8 +61,11 @@ class ConsoleLoadOnLoopSoakTest {
         int rounds = Integer.getInteger("galebench.load.rounds", 3);
         int seconds = Integer.getInteger("galebench.load.seconds", 20);
         List<double[]> without = new ArrayList<>();
+        List<double[]> sockets = new ArrayList<>();
         List<double[]> with = new ArrayList<>();
         StringBuilder report = new StringBuilder();
+        report.append(String.format(Locale.ROOT, "# load average at start %.2f (2 cores)%n",
+                java.lang.management.ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage()));
         report.append(String.format(Locale.ROOT, "# %d rounds of %d s each, step %d us, %s%n", rounds, seconds, STEP_NS / 1000,
                 "columns: p50 p99 p99.9 max lateness (us), overruns"));
         runLoop(seconds / 4, null); // warm-up: JIT, caches
@@ -62,10 +73,17 @@ class ConsoleLoadOnLoopSoakTest {
             double[] a = runLoop(seconds, null);
             without.add(a);
             report.append(line("without", a));
+            double[] c = runWithTwoSocketViewers(seconds);
+            sockets.add(c);
+            report.append(line("2 socket viewers", c));
             double[] b = runWithTwoConsoles(seconds);
             with.add(b);
             report.append(line("with 2 consoles", b));
         }
+        report.append(String.format(Locale.ROOT, "median p99.9 with 2 socket viewers (browsers elsewhere) %.2f us, ratio %.3f%n",
+                median(sockets, 2), median(sockets, 2) / median(without, 2)));
+        report.append(String.format(Locale.ROOT, "median p99 with 2 socket viewers %.2f us, ratio %.3f%n",
+                median(sockets, 1), median(sockets, 1) / median(without, 1)));
         double p999Without = median(without, 2);
         double p999With = median(with, 2);
         double p99Without = median(without, 1);
@@ -74,6 +92,7 @@ class ConsoleLoadOnLoopSoakTest {
                 p99Without, p99With, p99With / p99Without));
         report.append(String.format(Locale.ROOT, "median p99.9 without %.2f us, with %.2f us, ratio %.3f%n",
                 p999Without, p999With, p999With / p999Without));
+        report.append(consoleCpu);
         Path out = Path.of("target", "console-load.txt");
         Files.createDirectories(out.getParent());
         Files.writeString(out, report);
@@ -87,7 +106,18 @@ class ConsoleLoadOnLoopSoakTest {
             one.driver().get(d.url());
             two.driver().get(d.url());
             awaitViewers(d, 2);
+            Thread netty = null;
+            for (Thread t : Thread.getAllStackTraces().keySet()) {
+                if (t.getName().startsWith("galebench-dashboard-") && !t.getName().endsWith("control")) {
+                    netty = t;
+                }
+            }
+            java.lang.management.ThreadMXBean mx = java.lang.management.ManagementFactory.getThreadMXBean();
+            long nettyCpu0 = netty == null ? 0 : mx.getThreadCpuTime(netty.getId());
             double[] r = runLoop(seconds, d);
+            long nettyCpuNs = netty == null ? -1 : mx.getThreadCpuTime(netty.getId()) - nettyCpu0;
+            consoleCpu.append(String.format(Locale.ROOT, "console CPU in a %d s run: feed thread %.1f ms, network thread %.1f ms%n",
+                    seconds, d.feedCpuNs() / 1e6, nettyCpuNs / 1e6));
             for (HeadlessChromium c : List.of(one, two)) {
                 // the page drew the stream: the lateness panel has a plot and a p99.9 value
                 new WebDriverWait(c.driver(), Duration.ofSeconds(10)).until(drv ->
@@ -99,10 +129,44 @@ class ConsoleLoadOnLoopSoakTest {
         }
     }
 
+    /**
+     * The server side of two open consoles whose browsers run on another machine: two real
+     * WebSocket clients (JDK) receive every message; the console does all its work (decimation,
+     * encoding, two sockets), nothing draws on this host.
+     */
+    private double[] runWithTwoSocketViewers(int seconds) throws Exception {
+        try (Dashboard d = Dashboard.start(DashboardOptions.loopback(0), null, null)) {
+            java.util.concurrent.atomic.AtomicLong received = new java.util.concurrent.atomic.AtomicLong();
+            List<java.net.http.WebSocket> sockets = new ArrayList<>();
+            for (int i = 0; i < 2; i++) {
+                sockets.add(java.net.http.HttpClient.newHttpClient().newWebSocketBuilder()
+                        .buildAsync(java.net.URI.create("ws://127.0.0.1:" + d.port() + "/ws"), new java.net.http.WebSocket.Listener() {
+                            @Override
+                            public java.util.concurrent.CompletionStage<?> onText(java.net.http.WebSocket ws, CharSequence data, boolean last) {
+                                if (last) {
+                                    received.incrementAndGet();
+                                }
+                                ws.request(1);
+                                return null;
+                            }
+                        }).join());
+            }
+            awaitViewers(d, 2);
+            double[] r = runLoop(seconds, d);
+            assertTrue(received.get() > seconds * 2L * 5, "the viewers received the stream: " + received.get() + " messages");
+            for (java.net.http.WebSocket ws : sockets) {
+                ws.abort();
+            }
+            return r;
+        }
+    }
+
     /** Runs the loop for {@code seconds}; returns lateness p50, p99, p99.9, max in us, and overruns. */
     private static double[] runLoop(int seconds, Dashboard d) throws InterruptedException {
-        FirstOrderTestPlant plant = new FirstOrderTestPlant(STEP_NS);
-        EchoBoardLink link = new EchoBoardLink();
+        TurbineParameters p = TurbineFile.defaults();
+        TurbinePlant plant = new TurbinePlant(p, STEP_NS);
+        plant.initialise(SteadyState.solve(p, 10.0, 1.0, 0.0));
+        BoardLink link = BoardLinks.inProcess(BoardControllers.create(ServeBench.defaultController()));
         long steps = seconds * 1_000_000_000L / STEP_NS;
         LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).durationSteps(steps).realTime(true).build();
         List<SampleConsumer> consumers = d == null ? List.of() : List.of(d.feed());
@@ -111,8 +175,9 @@ class ConsoleLoadOnLoopSoakTest {
             d.timingSource(TimingSource.of(loop, link));
         }
         LoopResult r = loop.run();
-        assertEquals(steps, r.exchanges, "the run completed");
-        assertTrue(link.counters().repliesAccepted > 0);
+        link.close();
+        assertEquals(steps, r.steps, "the run completed");
+        assertTrue(r.linkCounters.repliesAccepted > 0);
         return new double[] {
             r.latenessNs.getValueAtPercentile(50) / 1000.0,
             r.latenessNs.getValueAtPercentile(99) / 1000.0,
