@@ -6,35 +6,22 @@ import dev.galebench.report.CheckOutcome;
  * A signal stays within {@code [low, high]} over the window {@code [fromS, toS]}. Either limit
  * may be NaN (one-sided band). Keeps the extremes, the first excursion and the worst excursion.
  */
-public final class BandCheck extends StreamingCheck {
-    private final String signal;
+public final class BandCheck extends SingleSignalCheck {
     private final double low, high, fromS, toS;
-    private int slot;
-    private String unit;
     private long count, outside;
     private double min = Double.POSITIVE_INFINITY, max = Double.NEGATIVE_INFINITY;
     private double firstOutS = Double.NaN, firstOutValue = Double.NaN;
     private double worstExcess, worstS = Double.NaN, worstValue = Double.NaN;
 
     public BandCheck(String name, String signal, double low, double high, double fromS, double toS) {
-        super(name, "band");
-        this.signal = signal;
+        super(name, "band", signal);
         this.low = low;
         this.high = high;
         this.fromS = fromS;
         this.toS = toS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-        unit = index.unit(slot);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {

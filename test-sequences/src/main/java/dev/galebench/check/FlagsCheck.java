@@ -6,33 +6,22 @@ import dev.galebench.report.CheckOutcome;
  * Bits of a flags signal (e.g. {@code trip_flags}) that must never be set over a window: "no
  * trip other than the link watchdog" is {@code never_set} = all trip bits except bit 11.
  */
-public final class FlagsCheck extends StreamingCheck {
-    private final String signal;
+public final class FlagsCheck extends SingleSignalCheck {
     private final long mask;
     private final double fromS, toS;
-    private int slot;
     private long count;
     private double firstS = Double.NaN;
     private long firstBits;
     private long seenBits;
 
     public FlagsCheck(String name, String signal, long mask, double fromS, double toS) {
-        super(name, "flags");
-        this.signal = signal;
+        super(name, "flags", signal);
         this.mask = mask;
         this.fromS = fromS;
         this.toS = toS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {

@@ -7,19 +7,15 @@ import dev.galebench.report.CheckOutcome;
  * the step, in % of the step size (common definition), over {@code (atS, toS]}. {@code initial}
  * NaN means the last sample at or before {@code atS}.
  */
-public final class OvershootCheck extends StreamingCheck {
-    private final String signal;
+public final class OvershootCheck extends SingleSignalCheck {
     private final double atS, initialGiven, finalValue, maxPercent, toS;
-    private int slot;
-    private String unit;
     private double initial = Double.NaN;
     private double peakBeyond = 0, peakS = Double.NaN, peakValue = Double.NaN;
     private long count;
 
     public OvershootCheck(String name, String signal, double atS, double initial, double finalValue,
                           double maxPercent, double toS) {
-        super(name, "overshoot");
-        this.signal = signal;
+        super(name, "overshoot", signal);
         this.atS = atS;
         this.initialGiven = initial;
         this.initial = initial;
@@ -28,16 +24,7 @@ public final class OvershootCheck extends StreamingCheck {
         this.toS = toS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-        unit = index.unit(slot);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {

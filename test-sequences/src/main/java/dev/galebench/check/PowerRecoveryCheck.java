@@ -8,10 +8,8 @@ import dev.galebench.report.CheckOutcome;
  * {@code [faultAtS - preS, faultAtS)}) within {@code withinS}. Grid codes state such a recovery
  * as a time or a ramp rate (e.g. "90 % within 0.5 s", common practice).
  */
-public final class PowerRecoveryCheck extends StreamingCheck {
-    private final String signal;
+public final class PowerRecoveryCheck extends SingleSignalCheck {
     private final double faultAtS, clearedAtS, withinS, fraction, preS;
-    private int slot;
     private double sum;
     private long preCount;
     private double recoveredS = Double.NaN;
@@ -19,8 +17,7 @@ public final class PowerRecoveryCheck extends StreamingCheck {
 
     public PowerRecoveryCheck(String name, String signal, double faultAtS, double clearedAtS, double withinS,
                               double fraction, double preS) {
-        super(name, "power_recovery");
-        this.signal = signal;
+        super(name, "power_recovery", signal);
         this.faultAtS = faultAtS;
         this.clearedAtS = clearedAtS;
         this.withinS = withinS;
@@ -28,15 +25,7 @@ public final class PowerRecoveryCheck extends StreamingCheck {
         this.preS = preS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {

@@ -9,11 +9,8 @@ import dev.galebench.report.CheckOutcome;
  * sample at or before {@code atS}". Crossing times are interpolated linearly between samples,
  * so the resolution is finer than one exchange for smooth signals.
  */
-public final class RiseTimeCheck extends StreamingCheck {
-    private final String signal;
+public final class RiseTimeCheck extends SingleSignalCheck {
     private final double atS, initialGiven, finalValue, maxS, toS;
-    private int slot;
-    private String unit;
     private double initial = Double.NaN;
     private double prevS = Double.NaN, prevFraction = Double.NaN;
     private double t10 = Double.NaN, t90 = Double.NaN;
@@ -21,8 +18,7 @@ public final class RiseTimeCheck extends StreamingCheck {
 
     public RiseTimeCheck(String name, String signal, double atS, double initial, double finalValue, double maxS,
                          double toS) {
-        super(name, "rise_time");
-        this.signal = signal;
+        super(name, "rise_time", signal);
         this.atS = atS;
         this.initialGiven = initial;
         this.initial = initial;
@@ -31,16 +27,7 @@ public final class RiseTimeCheck extends StreamingCheck {
         this.toS = toS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-        unit = index.unit(slot);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {

@@ -10,22 +10,18 @@ import dev.galebench.report.CheckOutcome;
  * {@code target} NaN means "back to where it was": the mean of the signal over
  * {@code [afterS - preS, afterS)}.
  */
-public final class SettleCheck extends StreamingCheck {
-    private final String signal;
+public final class SettleCheck extends SingleSignalCheck {
     private final double tolerance, afterS, byS, toS, preS;
     private double target;
     private double preSum;
     private long preCount;
-    private int slot;
-    private String unit;
     private long count;
     private double enteredS = Double.NaN;
     private double lastS = Double.NaN, lastValue = Double.NaN;
 
     public SettleCheck(String name, String signal, double target, double tolerance, double afterS, double byS,
                        double toS, double preS) {
-        super(name, "settle");
-        this.signal = signal;
+        super(name, "settle", signal);
         this.target = target;
         this.tolerance = tolerance;
         this.afterS = afterS;
@@ -34,16 +30,7 @@ public final class SettleCheck extends StreamingCheck {
         this.preS = preS;
     }
 
-    @Override
-    public String[] signals() {
-        return new String[] {signal};
-    }
 
-    @Override
-    public void bind(SignalIndex index) {
-        slot = index.of(signal);
-        unit = index.unit(slot);
-    }
 
     @Override
     public void onSample(double timeS, double[] values) {
