@@ -44,6 +44,7 @@ abstract class FrameLink implements BoardLink {
     private int stored;
     private long lastSentSequence = -1;
     private long sends;
+    private long received;
 
     FrameLink(WireProfile profile, LinkFaults faults, ByteBuffer txFrame, ByteBuffer rxFrame) {
         this.profile = profile;
@@ -89,6 +90,7 @@ abstract class FrameLink implements BoardLink {
             if (length == 0) {
                 return POLL_EMPTY;
             }
+            received++;
             if (length < 0) {
                 counters.malformedFrames++;
                 return POLL_REJECTED;
@@ -101,6 +103,7 @@ abstract class FrameLink implements BoardLink {
             if (length == 0) {
                 break;
             }
+            received++;
             if (length < 0) {
                 counters.malformedFrames++;
                 rejected++;
@@ -117,6 +120,11 @@ abstract class FrameLink implements BoardLink {
         stored--;
         delayedCommand.wrap(delayLine, slot * FrameLayout.MAX_FRAME_LENGTH);
         return account(delayedCommand.decode(length, lastSentSequence, out));
+    }
+
+    @Override
+    public final long framesReceived() {
+        return received;
     }
 
     @Override

@@ -32,6 +32,16 @@ public interface BoardLink extends AutoCloseable {
      */
     int poll(BoardCommand out);
 
+    /**
+     * Frames that arrived at the transport so far, whatever became of them (accepted, rejected,
+     * or withheld by fault injection); -1 if this link does not count them. The paced exchange
+     * ({@code LoopConfig.replyWaitNs}) waits only while nothing at all has arrived since the
+     * last send, so a reply that fault injection drops or delays on purpose is not waited for.
+     */
+    default long framesReceived() {
+        return -1;
+    }
+
     /** Counters of this link (CRC errors, malformed frames, ...). */
     LinkCounters counters();
 

@@ -287,6 +287,7 @@ public final class RealTimeLoop {
         // round trips are timed from just before the send: on a busy machine the send system call
         // may wake the board and be preempted until its reply is already waiting
         sup.onSent(0, System.nanoTime());
+        long receivedAtSend = l.framesReceived();
         l.send(0, v);
 
         long k = 0;
@@ -312,8 +313,11 @@ public final class RealTimeLoop {
                 if (replyWaitNs > 0) {
                     // paced exchange: a reply still due holds the plant up to replyWaitNs; the wait
                     // shows as lateness and an overrun, and the schedule is re-based below
+                    // only while nothing at all arrived since the send: a reply that fault
+                    // injection withholds on purpose is not waited for
                     final long giveUpNs = deadline + replyWaitNs;
-                    while (sup.awaitingReply() && now < giveUpNs && !abortRequested) {
+                    while (sup.awaitingReply() && now < giveUpNs && !abortRequested
+                            && (receivedAtSend < 0 || l.framesReceived() == receivedAtSend)) {
                         if (l.poll(rx) == BoardLink.POLL_REPLY) {
                             sup.onReply(rx, System.nanoTime());
                         }
@@ -386,6 +390,7 @@ public final class RealTimeLoop {
             exchange++;
             sup.beginExchange(exchange);
             sup.onSent(exchange, System.nanoTime());
+            receivedAtSend = l.framesReceived();
             l.send(exchange, v);
             end = System.nanoTime();
 

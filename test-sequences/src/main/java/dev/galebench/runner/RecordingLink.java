@@ -84,6 +84,11 @@ public final class RecordingLink implements BoardLink {
         return inner.counters();
     }
 
+    @Override
+    public long framesReceived() {
+        return inner.framesReceived();
+    }
+
     /** Closes the wrapped link (not the recording: see {@link #finish}). */
     @Override
     public void close() {
