@@ -23,6 +23,11 @@ public final class CheckSet implements SampleConsumer {
     private long missed;
     private double lastTimeS = Double.NaN;
 
+    private java.util.function.Consumer<CheckOutcome> decided;
+    private final RunFacts provisional = new RunFacts();
+    private double[] decideAtS;
+    private boolean[] reported;
+
     public CheckSet(List<StreamingCheck> checks) {
         this.checks = checks.toArray(new StreamingCheck[0]);
     }
@@ -57,6 +62,39 @@ public final class CheckSet implements SampleConsumer {
         }
         samples++;
         lastTimeS = timeS;
+        if (decided != null) {
+            publishDecided(timeS);
+        }
+    }
+
+    /**
+     * Hands each check's verdict to {@code listener} as soon as plant time passes the end of the
+     * window it judges (checks judged only at the end of a run, timing and link health, wait for
+     * {@link #outcomes}). Called on the checker's thread; it allocates when it publishes, never
+     * per sample otherwise. The final verdicts of {@link #outcomes} still decide: they may differ
+     * if the run is aborted or samples are lost afterwards. For live consoles.
+     */
+    public void onDecided(java.util.function.Consumer<CheckOutcome> listener) {
+        decided = listener;
+    }
+
+    private void publishDecided(double timeS) {
+        final StreamingCheck[] cs = checks;
+        if (decideAtS == null) {
+            // the window a check judges is fixed by its definition: ask a verdict before any data
+            decideAtS = new double[cs.length];
+            reported = new boolean[cs.length];
+            for (int i = 0; i < cs.length; i++) {
+                final double end = cs[i].finish(provisional).windowEndS();
+                decideAtS[i] = Double.isNaN(end) ? Double.POSITIVE_INFINITY : end;
+            }
+        }
+        for (int i = 0; i < cs.length; i++) {
+            if (!reported[i] && timeS > decideAtS[i]) {
+                reported[i] = true;
+                decided.accept(cs[i].finish(provisional));
+            }
+        }
     }
 
     @Override

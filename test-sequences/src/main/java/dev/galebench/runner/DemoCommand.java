@@ -78,7 +78,8 @@ public final class DemoCommand implements Callable<Integer> {
             try (dev.galebench.dashboard.Dashboard d = dashboard.startIfAsked(
                     dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { }, w)) {
                 o.dashboard = d;
-                r = new SequenceRunner().run(seq, o);
+                // with a console: pending checks, verdicts as they fall, the report link
+                r = dev.galebench.cli.serve.WatchedRun.run(d, seq.name(), seq, o);
             }
             RunCommand.print(w, r);
             w.println("demo: report " + r.folder().resolve("report.html").toAbsolutePath());

@@ -91,7 +91,8 @@ public final class RunCommand implements Callable<Integer> {
                 dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { },
                 spec.commandLine().getOut())) {
             o.dashboard = d;
-            r = new SequenceRunner().run(seq, o);
+            // with a console: pending checks, verdicts as they fall, the report link
+                r = dev.galebench.cli.serve.WatchedRun.run(d, seq.name(), seq, o);
         }
         print(spec.commandLine().getOut(), r);
         return r.passed() ? GalebenchCommand.EXIT_OK : GalebenchCommand.EXIT_FAILED;

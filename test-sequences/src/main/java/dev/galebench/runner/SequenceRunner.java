@@ -107,6 +107,8 @@ public final class SequenceRunner {
         public double replyWaitUs;
         /** Live web console to feed (started by the command's --dashboard option), or null. */
         public dev.galebench.dashboard.Dashboard dashboard;
+        /** Gets each check's verdict as soon as its window has passed (live consoles), or null. */
+        public java.util.function.Consumer<CheckOutcome> verdictListener;
         /** More consumers. */
         public List<SampleConsumer> extraConsumers = List.of();
     }
@@ -186,6 +188,9 @@ public final class SequenceRunner {
         plant.initialise(s.op);
         final SampleLayout layout = SampleLayout.of(plant);
         final CheckSet checks = SequenceChecks.bind(seq, new SignalIndex(layout.names(), layout.units()));
+        if (o.verdictListener != null) {
+            checks.onDecided(o.verdictListener);
+        }
         final LinkFaults faults = new LinkFaults().reseed(0x5EED_0001L);
         final Schedule schedule = Schedule.compile(seq, s.stepPeriodNs, new Schedule.Start(seq.initial().windMPerS(),
                 seq.initial().gridVoltagePu(), s.turbine.gridFrequencyHz, s.turbine.shortCircuitRatio,

@@ -270,7 +270,8 @@
     var placeholder = ul.querySelector('.muted');
     if (placeholder) { placeholder.remove(); }
     var li = null;
-    ul.querySelectorAll('li[data-pending]').forEach(function (p) { if (!li && p.dataset.check === m.name) { li = p; } });
+    // a check's entry is pending, or holds its verdict from when its window passed: replace it
+    ul.querySelectorAll('li[data-check]').forEach(function (p) { if (!li && p.dataset.check === m.name) { li = p; } });
     if (li) { delete li.dataset.pending; } else { li = document.createElement('li'); ul.appendChild(li); }
     li.dataset.passed = String(m.passed);
     li.dataset.check = m.name;

@@ -35,6 +35,9 @@ public final class WatchedRun {
         List<String> checks = new ArrayList<>();
         seq.checks().forEach(c -> checks.add(c.name()));
         console.sequenceStarted(seq.name(), runId, checks);
+        // verdicts as they fall: each check's as soon as its window has passed, final ones below
+        options.verdictListener = c -> console.verdict(
+                new Verdict(c.name(), c.kind(), c.passed(), c.measured(), c.required(), c.message()), c.windowEndS());
         SequenceRunner.Result r;
         try {
             r = new SequenceRunner().run(seq, options);
