@@ -26,12 +26,17 @@ class RealTimeContractTest {
         double[] sample = new double[plant.signalCount()];
         long tid = Thread.currentThread().getId();
         run(plant, driver, scenario, view, sample, 0, 200_000); // warm up, JIT
-        long before = mx.getThreadAllocatedBytes(tid);
-        run(plant, driver, scenario, view, sample, 200_000, 1_200_000);
-        long after = mx.getThreadAllocatedBytes(tid);
-        System.out.println("allocated " + (after - before) + " bytes over 1,000,000 steps (step + sense + sample + inputs)");
-        assertTrue(after - before <= 1024, "allocated " + (after - before) + " bytes over 1,000,000 steps");
-        assertEquals(1_200_000, plant.stepCount());
+        // the fewest bytes of three windows of a million steps: a real allocation shows in every
+        // window, a one-off charge of the JVM to this thread (a deoptimisation) in one only
+        long fewest = Long.MAX_VALUE;
+        for (int w = 0; w < 3; w++) {
+            long from = 200_000 + w * 1_000_000L;
+            long before = mx.getThreadAllocatedBytes(tid);
+            run(plant, driver, scenario, view, sample, from, from + 1_000_000);
+            fewest = Math.min(fewest, mx.getThreadAllocatedBytes(tid) - before);
+        }
+        assertEquals(0, fewest, "bytes allocated over 1,000,000 steps (step + sense + sample + inputs), fewest of 3 windows");
+        assertEquals(3_200_000, plant.stepCount());
     }
 
     private static void run(TurbinePlant plant, SteadyDriver driver, Scenario scenario, SensorView view, double[] sample,
