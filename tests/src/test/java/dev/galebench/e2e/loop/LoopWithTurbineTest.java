@@ -14,6 +14,7 @@ import dev.galebench.rt.BoardLink;
 import dev.galebench.rt.LoopConfig;
 import dev.galebench.rt.LoopResult;
 import dev.galebench.rt.RealTimeLoop;
+import dev.galebench.rt.SampleConsumer;
 import dev.galebench.rt.SampleLayout;
 import dev.galebench.rt.support.AllocationProbe;
 import dev.galebench.rt.support.CollectingConsumer;
@@ -84,8 +85,22 @@ class LoopWithTurbineTest {
         AllocationProbe probe = new AllocationProbe(warmup, measured, 3);
         TurbinePlant plant = settledPlant();
         try (BoardLink link = BoardLinks.inProcess(BoardControllers.create("hold"))) {
+            // a consumer that keeps nothing: 3.2 million kept samples would not fit the test heap
+            SampleConsumer counting = new SampleConsumer() {
+                @Override
+                public void onStart(String[] signalNames, String[] signalUnits, long stepPeriodNs, int exchangeEverySteps) {
+                }
+
+                @Override
+                public void onSample(dev.galebench.rt.Sample sample) {
+                }
+
+                @Override
+                public void onEnd(long samplesMissed) {
+                }
+            };
             LoopResult r = new RealTimeLoop(offline(probe.lastStep() + 10).ringSize(1024).offlineBackpressure(false)
-                    .build(), plant, link, probe, List.of(new CollectingConsumer()), SampleLayout.of(plant)).run();
+                    .build(), plant, link, probe, List.of(counting), SampleLayout.of(plant)).run();
             assertEquals(probe.lastStep() + 10, r.steps);
         }
         assertEquals(0, probe.fewestBytesInAWindow(),
