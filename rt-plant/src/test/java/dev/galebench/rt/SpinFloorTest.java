@@ -16,8 +16,13 @@ class SpinFloorTest {
         // a tick late by more than a step needs a clock gap behind it; one gap may make several stalls
         assertTrue(r.stalls() == 0 || r.clockGaps() >= 1, r.toString());
         assertTrue(r.stalls() <= r.ticks());
-        assertTrue(r.maxClockGapNs() >= r.latenessNs().getMaxValue() - r.latenessNs().getMaxValue() / 100 - 1000
-                || r.stalls() == 0, "the largest lateness comes from the largest gap: " + r);
+        // lateness comes from clock gaps: back-to-back gaps add up (the ticks behind them are late
+        // by their sum), so the largest lateness is at most all the gaps together (+1 % histogram
+        // precision, + one step)
+        final long maxLatenessNs = r.latenessNs().getMaxValue();
+        assertTrue(r.stalls() == 0
+                        || maxLatenessNs - maxLatenessNs / 100 - 50_000 <= r.clockGaps() * r.maxClockGapNs(),
+                "the lateness is explained by the clock gaps: " + r);
     }
 
     @Test
