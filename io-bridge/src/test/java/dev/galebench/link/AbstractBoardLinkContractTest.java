@@ -201,6 +201,23 @@ abstract class AbstractBoardLinkContractTest {
     }
 
     @Test
+    void shouldCountEveryArrivingFrameEvenWhenFaultInjectionWithholdsIt() throws Exception {
+        // the paced exchange ends its wait on framesReceived(): a reply withheld on purpose must count
+        final LinkFaults faults = new LinkFaults();
+        final BoardLink l = openLink(new TestControllers.Echoing(), LinkOptions.defaults().faults(faults));
+        final BoardCommand out = new BoardCommand();
+        assertEquals(0, l.framesReceived());
+        assertTrue(l.send(0, SensorViews.sample(0)));
+        assertEquals(BoardLink.POLL_REPLY, awaitPoll(l, out));
+        assertEquals(1, l.framesReceived());
+        faults.silent = true;
+        assertTrue(l.send(1, SensorViews.sample(1)));
+        assertTrue(pollUntil(l, out, () -> faults.silencedReplies == 1), "reply 1 silenced");
+        assertEquals(2, l.framesReceived(), "the silenced reply arrived and was counted");
+        assertEquals(0, out.answeredSequence, "but it was not delivered");
+    }
+
+    @Test
     void shouldDeliverDuplicateRepliesTwice() throws Exception {
         final LinkFaults faults = new LinkFaults();
         final BoardLink l = openLink(new TestControllers.Echoing(), LinkOptions.defaults().faults(faults));

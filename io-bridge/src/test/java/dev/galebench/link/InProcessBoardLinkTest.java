@@ -3,6 +3,7 @@ package dev.galebench.link;
 import dev.galebench.board.BoardController;
 import dev.galebench.rt.BoardLink;
 
+/** Runs every assertion of {@link AbstractBoardLinkContractTest} in process. */
 class InProcessBoardLinkTest extends AbstractBoardLinkContractTest {
     @Override
     BoardLink open(BoardController controller, LinkOptions options) {

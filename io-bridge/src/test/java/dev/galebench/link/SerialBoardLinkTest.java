@@ -5,7 +5,9 @@ import dev.galebench.board.VirtualBoard;
 import dev.galebench.rt.BoardLink;
 import dev.galebench.support.PtyPair;
 
-/** The contract over a real pty pair made by socat (fresh per test), board on the far end. */
+/**
+ * Runs every assertion of {@link AbstractBoardLinkContractTest} over a fresh socat pty pair.
+ */
 class SerialBoardLinkTest extends AbstractBoardLinkContractTest {
     private PtyPair pty;
     private VirtualBoard board;

@@ -5,7 +5,9 @@ import dev.galebench.board.VirtualBoard;
 import dev.galebench.rt.BoardLink;
 import java.net.InetSocketAddress;
 
-/** The contract over real loopback UDP sockets, the board running on its own thread. */
+/**
+ * Runs every assertion of {@link AbstractBoardLinkContractTest} over real loopback UDP sockets.
+ */
 class UdpBoardLinkTest extends AbstractBoardLinkContractTest {
     private VirtualBoard board;
     private Thread thread;

@@ -17,21 +17,25 @@ public final class Modulation {
 
     /** Machine-side duties for (vd, vq) in the rotor frame at electrical angle {@code angleRad}. */
     public static void mscDuties(BoardCommand cmd, double vdV, double vqV, double angleRad, double dcVoltageV) {
-        final double c = Math.cos(angleRad);
-        final double s = Math.sin(angleRad);
-        final double va = vdV * c - vqV * s;
-        final double vbeta = vdV * s + vqV * c;
-        final double vb = -0.5 * va + SQRT3_2 * vbeta;
-        final double vc = -0.5 * va - SQRT3_2 * vbeta;
-        final double zero = -0.5 * (Math.max(va, Math.max(vb, vc)) + Math.min(va, Math.min(vb, vc)));
-        final double inv = dcVoltageV > 1e-9 ? 1.0 / dcVoltageV : 0.0;
-        cmd.mscDutyA = clip(0.5 + (va + zero) * inv);
-        cmd.mscDutyB = clip(0.5 + (vb + zero) * inv);
-        cmd.mscDutyC = clip(0.5 + (vc + zero) * inv);
+        final double[] d = legDuties(vdV, vqV, angleRad, dcVoltageV);
+        cmd.mscDutyA = d[0];
+        cmd.mscDutyB = d[1];
+        cmd.mscDutyC = d[2];
     }
 
     /** Grid-side duties for (vd, vq) in the grid frame at angle {@code angleRad}. */
     public static void gscDuties(BoardCommand cmd, double vdV, double vqV, double angleRad, double dcVoltageV) {
+        final double[] d = legDuties(vdV, vqV, angleRad, dcVoltageV);
+        cmd.gscDutyA = d[0];
+        cmd.gscDutyB = d[1];
+        cmd.gscDutyC = d[2];
+    }
+
+    /**
+     * Leg duties a, b, c for a dq voltage at {@code angleRad}, with the min/max zero sequence of
+     * SVPWM added. Allocates its result: used when a run is set up, never on the real-time path.
+     */
+    static double[] legDuties(double vdV, double vqV, double angleRad, double dcVoltageV) {
         final double c = Math.cos(angleRad);
         final double s = Math.sin(angleRad);
         final double va = vdV * c - vqV * s;
@@ -40,9 +44,7 @@ public final class Modulation {
         final double vc = -0.5 * va - SQRT3_2 * vbeta;
         final double zero = -0.5 * (Math.max(va, Math.max(vb, vc)) + Math.min(va, Math.min(vb, vc)));
         final double inv = dcVoltageV > 1e-9 ? 1.0 / dcVoltageV : 0.0;
-        cmd.gscDutyA = clip(0.5 + (va + zero) * inv);
-        cmd.gscDutyB = clip(0.5 + (vb + zero) * inv);
-        cmd.gscDutyC = clip(0.5 + (vc + zero) * inv);
+        return new double[] {clip(0.5 + (va + zero) * inv), clip(0.5 + (vb + zero) * inv), clip(0.5 + (vc + zero) * inv)};
     }
 
     private static double clip(double d) {
