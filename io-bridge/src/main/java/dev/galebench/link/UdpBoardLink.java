@@ -81,7 +81,7 @@ final class UdpBoardLink extends FrameLink {
         closeQuietly(channel);
     }
 
-    private static void closeQuietly(DatagramChannel ch) {
+    static void closeQuietly(DatagramChannel ch) {
         if (ch != null) {
             try {
                 ch.close();

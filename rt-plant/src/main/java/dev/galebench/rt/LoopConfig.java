@@ -13,7 +13,7 @@ package dev.galebench.rt;
  *   <tr><td>realTime</td><td>-</td><td>true</td><td>true: busy-spin to each deadline t0 + k M h; false: offline, no waiting</td></tr>
  *   <tr><td>watchdogNs</td><td>ns</td><td>20 000 000</td><td>schedule time without a valid reply after which the plant trips ({@code TRIP_LINK_WATCHDOG}) and the converters are blocked</td></tr>
  *   <tr><td>ringSize</td><td>samples</td><td>16 384</td><td>slots of each consumer's ring (power of two)</td></tr>
- *   <tr><td>pinCpu</td><td>CPU index</td><td>-1 (none)</td><td>pin the loop thread to this CPU (Linux, via {@code taskset})</td></tr>
+ *   <tr><td>pinCpu</td><td>CPU index</td><td>-1 (none)</td><td>pin the loop thread to this CPU and move the process's other threads off it for the run (Linux, via {@code taskset})</td></tr>
  *   <tr><td>stopOnTrip</td><td>-</td><td>false</td><td>end the run at the first exchange with a latched plant trip</td></tr>
  *   <tr><td>missedTickPolicy</td><td>-</td><td>CATCH_UP</td><td>see {@link MissedTickPolicy}</td></tr>
  *   <tr><td>offlineBackpressure</td><td>-</td><td>true</td><td>offline only: wait (spin) for a full consumer ring instead of dropping, so a regression run records every exchange; never in real time</td></tr>

@@ -158,6 +158,17 @@ public final class RealTimeLoop {
             throw new IllegalStateException("a RealTimeLoop runs once");
         }
         started = true;
+        final CpuPinning.Isolation isolation = config.pinCpu >= 0 ? CpuPinning.isolate(config.pinCpu) : null;
+        try {
+            return runIsolated(isolation);
+        } finally {
+            if (isolation != null) {
+                isolation.restore();
+            }
+        }
+    }
+
+    private LoopResult runIsolated(CpuPinning.Isolation isolation) throws InterruptedException {
         final String[] names = layout.names();
         final String[] units = layout.units();
         rings = new ConsumerRing[consumers.size()];
@@ -205,6 +216,9 @@ public final class RealTimeLoop {
         }
         final LinkCounters countersCopy = new LinkCounters();
         countersCopy.copyFrom(link.counters());
+        if (isolation != null) {
+            pinning = pinning + "; " + isolation.outcome();
+        }
         if (interrupted) {
             Thread.currentThread().interrupt();
         }

@@ -14,9 +14,25 @@ import org.HdrHistogram.Histogram;
  * {@code clockGaps} are the episodes behind them (two consecutive clock reads more than one step
  * apart: one 5 ms steal at 50 us is one gap and about 100 stalls).
  *
+ * <p>With a {@link FloorIo} the floor also does the bare input/output of an exchange each tick
+ * (send one frame right after the deadline, poll for replies while spinning, exactly where
+ * the loop does), with no plant, controller or codec: the "I/O floor". On a virtual machine,
+ * waking a peer on another core for every frame costs the spinning core stalls of its own
+ * (inter-processor interrupts go through the hypervisor); the I/O floor shows how much of the
+ * loop's lateness that alone explains.
+ *
  * <p>Spins one core at 100 % for the whole duration.
  */
 public final class SpinFloor {
+    /** The bare input/output an I/O floor does per tick. Implementations must not allocate. */
+    public interface FloorIo {
+        /** Right after tick {@code k}'s deadline was met (or missed): send one frame. */
+        void onTick(long k);
+
+        /** While spinning toward a deadline more than the loop's poll guard (3 us) away: read what arrived. */
+        void poll();
+    }
+
     /** What one floor run measured; lateness in ns. */
     public record Result(long stepPeriodNs, long ticks, long stalls, long clockGaps, long maxClockGapNs,
                          Histogram latenessNs, String pinning) {
@@ -30,6 +46,11 @@ public final class SpinFloor {
      * if &ge; 0) and returns what it saw. Blocks the caller.
      */
     public static Result measure(long stepPeriodNs, long durationNs, int pinCpu) throws InterruptedException {
+        return measure(stepPeriodNs, durationNs, pinCpu, null);
+    }
+
+    /** Same, doing {@code io} every tick (null: nothing, the pure floor). */
+    public static Result measure(long stepPeriodNs, long durationNs, int pinCpu, FloorIo io) throws InterruptedException {
         if (stepPeriodNs < 1_000 || durationNs < stepPeriodNs) {
             throw new IllegalArgumentException("spin floor: step " + stepPeriodNs + " ns / duration " + durationNs + " ns out of range");
         }
@@ -40,15 +61,24 @@ public final class SpinFloor {
             if (pinCpu >= 0) {
                 pin[0] = CpuPinning.pinCurrentThread(pinCpu);
             }
-            spin(stepPeriodNs, durationNs / stepPeriodNs, h, out);
+            spin(stepPeriodNs, durationNs / stepPeriodNs, h, out, io);
         }, "galebench-floor");
         t.setPriority(Thread.MAX_PRIORITY);
-        t.start();
-        t.join();
+        final CpuPinning.Isolation isolation = pinCpu >= 0 ? CpuPinning.isolate(pinCpu) : null;
+        try {
+            t.start();
+            t.join();
+        } finally {
+            if (isolation != null) {
+                isolation.restore();
+                pin[0] = pin[0] + "; " + isolation.outcome();
+            }
+        }
         return new Result(stepPeriodNs, out[0], out[1], out[2], out[3], h, pin[0]);
     }
 
-    private static void spin(long period, long ticks, Histogram h, long[] out) {
+    private static void spin(long period, long ticks, Histogram h, long[] out, FloorIo io) {
+        final long guard = RealTimeLoop.POLL_GUARD_NS;
         final long highest = LoopTimings.HIGHEST_TIME_NS;
         long stalls = 0;
         long gaps = 0;
@@ -67,7 +97,11 @@ public final class SpinFloor {
                     maxGap = gap;
                 }
                 last = now;
-                Thread.onSpinWait();
+                if (io != null && deadline - now > guard) {
+                    io.poll();
+                } else {
+                    Thread.onSpinWait();
+                }
                 now = System.nanoTime();
             }
             final long gap = now - last;
@@ -83,6 +117,9 @@ public final class SpinFloor {
                 stalls++;
             }
             h.recordValue(Math.min(lateness, highest));
+            if (io != null) {
+                io.onTick(k);
+            }
         }
         out[0] = ticks;
         out[1] = stalls;

@@ -26,6 +26,35 @@ class SpinFloorTest {
     }
 
     @Test
+    void shouldDoTheFloorIoOncePerTickInTickOrderAndPollWhileSpinning() throws Exception {
+        final long[] ticks = new long[1];
+        final long[] polls = new long[1];
+        final long[] lastTick = {-1};
+        final boolean[] ordered = {true};
+        SpinFloor.FloorIo io = new SpinFloor.FloorIo() {
+            @Override
+            public void onTick(long k) {
+                if (k != lastTick[0] + 1) {
+                    ordered[0] = false;
+                }
+                lastTick[0] = k;
+                ticks[0]++;
+            }
+
+            @Override
+            public void poll() {
+                polls[0]++;
+            }
+        };
+        SpinFloor.Result r = SpinFloor.measure(100_000, 100_000_000, -1, io);
+        assertEquals(1000, r.ticks());
+        assertEquals(1000, ticks[0], "one send per tick");
+        assertTrue(ordered[0], "ticks handed over in order, none skipped");
+        // 100 us steps leave 97 us of each one for polling; even a machine losing half its time polls often
+        assertTrue(polls[0] > r.ticks(), "polled while spinning: " + polls[0]);
+    }
+
+    @Test
     void shouldRejectDurationShorterThanOneStep() {
         assertThrows(IllegalArgumentException.class, () -> SpinFloor.measure(50_000, 10_000, -1));
     }

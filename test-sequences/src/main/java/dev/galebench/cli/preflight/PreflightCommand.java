@@ -5,6 +5,7 @@ import dev.galebench.board.BoardControllers;
 import dev.galebench.board.VirtualBoard;
 import dev.galebench.link.BoardLinks;
 import dev.galebench.link.LinkOptions;
+import dev.galebench.link.UdpEchoFloor;
 import dev.galebench.plant.SteadyState;
 import dev.galebench.plant.TurbineFile;
 import dev.galebench.plant.TurbineParameters;
@@ -37,7 +38,9 @@ import java.util.concurrent.Callable;
  * loop for the same time with the default turbine and a board, and prints both side by side
  * with a verdict judged as ratios to the floor ({@link PreflightVerdict}). Floor and loop
  * alternate in rounds (default one round per 5 s of each), so both see the same moods of a
- * machine whose speed changes by the minute; the results of the rounds are merged.
+ * machine whose speed changes by the minute; the results of the rounds are merged. Each round
+ * also measures the I/O floor between them ({@code --no-io-floor} skips it): see
+ * {@link PreflightVerdict}.
  *
  * <p>Default board: the virtual board started inside this JVM on its own thread, answering over
  * a real UDP socket pair on loopback (127.0.0.1). That exercises the same link code, socket
@@ -79,6 +82,16 @@ public final class PreflightCommand implements Callable<Integer> {
             description = "Alternate floor and loop in N rounds of S/N seconds each, so both see the machine's same moods (default 0: one round per 5 s).")
     int rounds;
 
+    @Option(names = "--warmup", paramLabel = "S", defaultValue = "2",
+            description = {"Seconds of real-time warm-up against the board before the measurement, not counted (default: ${DEFAULT-VALUE}; 0 = none).",
+                    "An offline burst of " + WARMUP_OFFLINE_EXCHANGES + " exchanges compiles plant, loop and codec first."})
+    double warmupS;
+
+    @Option(names = "--io-floor", negatable = true, defaultValue = "true", fallbackValue = "true",
+            description = {"Also measure the I/O floor each round: the spinning thread sends a frame-sized datagram per tick to a bare",
+                    "echo thread on loopback and polls for it, with no plant or controller (default: on; not for serial boards)."})
+    boolean ioFloor;
+
     @Option(names = "--hlog", paramLabel = "FILE", description = "Also write the loop's timing interval log here.")
     Path hlog;
 
@@ -99,6 +112,10 @@ public final class PreflightCommand implements Callable<Integer> {
         }
         if (pinCpu < -1) {
             err.println("galebench preflight: --pin-cpu " + pinCpu + " must be >= -1");
+            return 2;
+        }
+        if (!(warmupS >= 0.0 && warmupS <= 600.0)) {
+            err.println("galebench preflight: --warmup " + warmupS + " is out of range [0, 600]");
             return 2;
         }
         if (rounds < 0 || rounds > 10_000) {
@@ -151,23 +168,35 @@ public final class PreflightCommand implements Callable<Integer> {
             final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
                     .durationSteps(roundSteps).realTime(true).pinCpu(pinCpu)
                     .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
+            final String warmup = warmUp(params, stepNs, link, pinCpu);
             final long baseMs = System.currentTimeMillis();
             final List<SpinFloor.Result> floors = new ArrayList<>();
             final List<LoopResult> loops = new ArrayList<>();
+            final List<SpinFloor.Result> ioFloors = new ArrayList<>();
+            final boolean measureIo = ioFloor && (boardUri == null || boardUri.startsWith("udp://"));
+            long echoes = 0;
             for (int round = 0; round < n; round++) {
                 floors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu));
+                if (measureIo) {
+                    try (UdpEchoFloor echo = new UdpEchoFloor(WireProfile.FULL.measurementLength)) {
+                        ioFloors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu, echo));
+                        echoes += echo.echoed();
+                    }
+                }
                 drain(link);
                 link.counters().reset();
                 loops.add(new RealTimeLoop(cfg, plant, link, null, List.of(new Discard()), SampleLayout.of(plant))
                         .timingLogBaseTimeMs(baseMs).run());
             }
             final SpinFloor.Result floor = mergeFloors(floors);
+            final SpinFloor.Result io = measureIo ? mergeFloors(ioFloors) : null;
             final LoopResult result = LoopResult.merge(loops);
             if (hlog != null) {
                 result.writeTimingLog(hlog);
             }
-            final PreflightVerdict verdict = PreflightVerdict.judge(floor, result);
-            final PreflightReport report = new PreflightReport(stepUs, seconds, n, boardText, floor, result, verdict);
+            final PreflightVerdict verdict = PreflightVerdict.judge(floor, result, io);
+            final PreflightReport report = new PreflightReport(stepUs, seconds, n, boardText, floor, result, verdict)
+                    .warmup(warmupS, warmup).perRound(floors, loops).ioFloor(io, echoes, ioFloors);
             out.print(json ? report.json() + System.lineSeparator() : report.text());
             out.flush();
             return verdict.sustainable() ? 0 : 1;
@@ -178,6 +207,51 @@ public final class PreflightCommand implements Callable<Integer> {
                 boardThread.join(2000);
             }
         }
+    }
+
+    /** Exchanges of the offline part of the warm-up (about a second on a slow machine). */
+    static final long WARMUP_OFFLINE_EXCHANGES = 100_000;
+
+    /**
+     * JIT warm-up, not counted: a cold JVM runs the loop interpreted for its first second and
+     * is milliseconds late, which a preflight would otherwise blame on the machine (measured on
+     * a 2-core VM: a cold 10 s loop had 2 114 overruns and a 9 ms worst lateness, nearly all in
+     * its first second; after a 2 s warm-up 501, against 269 floor stalls). First an offline
+     * burst with the in-process reference (or hold) controller on a scratch plant compiles the
+     * plant, loop, codec and controller; then {@code warmupS} seconds in real time against the
+     * board itself compile the link and the board's side, and the link is drained and its
+     * counters reset.
+     *
+     * @return a one-line description for the report
+     */
+    private String warmUp(TurbineParameters params, long stepNs, BoardLink link, int pin) throws InterruptedException {
+        if (warmupS <= 0.0) {
+            return "none";
+        }
+        final BoardController c = BoardControllers.create(controllerName != null && boardUri == null ? controllerName : defaultController());
+        c.setSamplePeriod(stepNs * 1e-9);
+        final TurbinePlant scratch = new TurbinePlant(params, stepNs);
+        scratch.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
+        final BoardLink offline = BoardLinks.inProcess(c);
+        try {
+            final LoopConfig oc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
+                    .durationSteps(WARMUP_OFFLINE_EXCHANGES).realTime(false)
+                    .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
+            new RealTimeLoop(oc, scratch, offline, null, List.of(new Discard()), SampleLayout.of(scratch)).run();
+        } finally {
+            offline.close();
+        }
+        final TurbinePlant plant = new TurbinePlant(params, stepNs);
+        plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
+        final LoopConfig rc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
+                .durationSteps(Math.max(1, Math.round(warmupS * 1e9 / stepNs))).realTime(true).pinCpu(pin)
+                .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
+        final LoopResult w = new RealTimeLoop(rc, plant, link, null, List.of(new Discard()), SampleLayout.of(plant)).run();
+        drain(link);
+        link.counters().reset();
+        System.gc();
+        return String.format(java.util.Locale.ROOT, "%d exchanges offline, then %.1f s in real time against the board "
+                + "(%d overruns, not counted)", WARMUP_OFFLINE_EXCHANGES, warmupS, w.overruns);
     }
 
     /** Seconds of floor plus seconds of loop per round when --rounds is not given. */

@@ -17,6 +17,8 @@ import java.util.Locale;
  *  "floor": {"lateness_us": P, "stalls"},
  *  "loop":  {"lateness_us": P, "rtt_us": P, "overruns", "exchanges"}}
  * </pre>
+ * plus, among the extra keys, {@code "io_floor": {"lateness_us": P, "stalls", "ticks", "echoes"}}
+ * when the I/O floor was measured, {@code "warmup_s"} and {@code "per_round"}.
  * with P = {"p50", "p99", "p999", "p9999", "max"} in microseconds.
  */
 public final class PreflightReport {
@@ -27,6 +29,14 @@ public final class PreflightReport {
     private final SpinFloor.Result floor;
     private final LoopResult loop;
     private final PreflightVerdict verdict;
+    private double warmupS;
+    private String warmup = "none";
+    private long[] roundStalls = new long[0];
+    private long[] roundOverruns = new long[0];
+    private double[] roundLoopMaxUs = new double[0];
+    private SpinFloor.Result ioFloor;
+    private long ioEchoes;
+    private long[] roundIoStalls = new long[0];
 
     public PreflightReport(long stepUs, double seconds, int rounds, String board, SpinFloor.Result floor,
                            LoopResult loop, PreflightVerdict verdict) {
@@ -39,6 +49,29 @@ public final class PreflightReport {
         this.verdict = verdict;
     }
 
+    /** Records the warm-up that ran before the measurement (seconds of real time, and a one-line description). */
+    public PreflightReport warmup(double seconds, String description) {
+        this.warmupS = seconds;
+        this.warmup = description;
+        return this;
+    }
+
+    /** Records what each round saw: the floor's stalls, the loop's overruns and worst lateness. */
+    public PreflightReport perRound(java.util.List<SpinFloor.Result> floors, java.util.List<LoopResult> loops) {
+        roundStalls = floors.stream().mapToLong(SpinFloor.Result::stalls).toArray();
+        roundOverruns = loops.stream().mapToLong(r -> r.overruns).toArray();
+        roundLoopMaxUs = loops.stream().mapToDouble(r -> r.latenessNs.getTotalCount() == 0 ? 0.0 : r.latenessNs.getMaxValue() / 1e3).toArray();
+        return this;
+    }
+
+    /** Records the I/O floor (null: not measured), the echoes it received and its stalls per round. */
+    public PreflightReport ioFloor(SpinFloor.Result io, long echoes, java.util.List<SpinFloor.Result> rounds) {
+        this.ioFloor = io;
+        this.ioEchoes = echoes;
+        this.roundIoStalls = rounds.stream().mapToLong(SpinFloor.Result::stalls).toArray();
+        return this;
+    }
+
     /** The JSON document (pretty-printed). */
     public String json() {
         ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
@@ -46,12 +79,20 @@ public final class PreflightReport {
         root.put("step_us", stepUs);
         root.put("seconds", seconds);
         root.put("rounds", rounds);
+        root.put("warmup_s", warmupS);
         ObjectNode f = root.putObject("floor");
         putPercentiles(f.putObject("lateness_us"), floor.latenessNs());
         f.put("stalls", floor.stalls());
         f.put("ticks", floor.ticks());
         f.put("clock_gaps", floor.clockGaps());
         f.put("max_clock_gap_us", floor.maxClockGapNs() / 1e3);
+        if (ioFloor != null) {
+            ObjectNode io = root.putObject("io_floor");
+            putPercentiles(io.putObject("lateness_us"), ioFloor.latenessNs());
+            io.put("stalls", ioFloor.stalls());
+            io.put("ticks", ioFloor.ticks());
+            io.put("echoes", ioEchoes);
+        }
         ObjectNode l = root.putObject("loop");
         putPercentiles(l.putObject("lateness_us"), loop.latenessNs);
         putPercentiles(l.putObject("rtt_us"), loop.roundTripNs);
@@ -64,6 +105,13 @@ public final class PreflightReport {
         l.put("watchdog_trips", loop.linkCounters.watchdogTrips);
         l.put("stop", loop.stopReason.name());
         l.put("trip_flags", loop.tripFlags);
+        ObjectNode pr = root.putObject("per_round");
+        pr.putPOJO("floor_stalls", roundStalls);
+        if (ioFloor != null) {
+            pr.putPOJO("io_floor_stalls", roundIoStalls);
+        }
+        pr.putPOJO("loop_overruns", roundOverruns);
+        pr.putPOJO("loop_lateness_max_us", roundLoopMaxUs);
         root.put("board", board);
         root.put("pinning", loop.pinning);
         root.put("sustainable", verdict.sustainable());
@@ -94,18 +142,34 @@ public final class PreflightReport {
                 stepUs, seconds, seconds, rounds));
         sb.append("board: ").append(board).append('\n');
         sb.append("pinning: ").append(loop.pinning).append('\n');
-        sb.append(String.format(Locale.ROOT, "%-22s %14s %14s %14s%n", "", "floor lateness", "loop lateness", "loop rtt"));
+        sb.append("warm-up: ").append(warmup).append('\n');
+        final boolean io = ioFloor != null;
+        sb.append(String.format(Locale.ROOT, "%-22s %14s%s %14s %14s%n", "", "floor lateness",
+                io ? String.format(Locale.ROOT, " %14s", "i/o floor") : "", "loop lateness", "loop rtt"));
         String[] names = {"p50", "p99", "p99.9", "p99.99", "max"};
         double[] ps = {50.0, 99.0, 99.9, 99.99, 100.0};
         for (int i = 0; i < names.length; i++) {
-            sb.append(String.format(Locale.ROOT, "%-22s %14.2f %14.2f %14.2f%n", names[i] + " us",
-                    pct(floor.latenessNs(), ps[i]), pct(loop.latenessNs, ps[i]), pct(loop.roundTripNs, ps[i])));
+            sb.append(String.format(Locale.ROOT, "%-22s %14.2f%s %14.2f %14.2f%n", names[i] + " us",
+                    pct(floor.latenessNs(), ps[i]), io ? String.format(Locale.ROOT, " %14.2f", pct(ioFloor.latenessNs(), ps[i])) : "",
+                    pct(loop.latenessNs, ps[i]), pct(loop.roundTripNs, ps[i])));
         }
-        sb.append(String.format(Locale.ROOT, "%-22s %14d %14d%n", "late > 1 step", floor.stalls(), loop.overruns));
-        sb.append(String.format(Locale.ROOT, "%-22s %14d %14d%n", "ticks / exchanges", floor.ticks(), loop.exchanges));
+        sb.append(String.format(Locale.ROOT, "%-22s %14d%s %14d%n", "late > 1 step", floor.stalls(),
+                io ? String.format(Locale.ROOT, " %14d", ioFloor.stalls()) : "", loop.overruns));
+        sb.append(String.format(Locale.ROOT, "%-22s %14d%s %14d%n", "ticks / exchanges", floor.ticks(),
+                io ? String.format(Locale.ROOT, " %14d", ioFloor.ticks()) : "", loop.exchanges));
         sb.append(String.format(Locale.ROOT, "%-22s %14d%n", "floor clock gaps", floor.clockGaps()));
-        sb.append(String.format(Locale.ROOT, "%-22s %14s %14.2f%n", "compute p99 us", "", pct(loop.computeNs, 99.0)));
-        sb.append(String.format(Locale.ROOT, "%-22s %14s %14d%n", "missing replies", "", loop.linkCounters.missingReplies));
+        final String pad = io ? String.format(Locale.ROOT, " %14s", "") : "";
+        sb.append(String.format(Locale.ROOT, "%-22s %14s%s %14.2f%n", "compute p99 us", "", pad, pct(loop.computeNs, 99.0)));
+        sb.append(String.format(Locale.ROOT, "%-22s %14s%s %14d%n", "missing replies", "", pad, loop.linkCounters.missingReplies));
+        if (roundStalls.length > 1) {
+            sb.append(io ? "per round (floor stalls / i/o floor stalls / loop overruns / loop max us):"
+                    : "per round (floor stalls / loop overruns / loop max us):");
+            for (int i = 0; i < roundStalls.length; i++) {
+                sb.append(io ? String.format(Locale.ROOT, " %d/%d/%d/%.0f", roundStalls[i], roundIoStalls[i], roundOverruns[i], roundLoopMaxUs[i])
+                        : String.format(Locale.ROOT, " %d/%d/%.0f", roundStalls[i], roundOverruns[i], roundLoopMaxUs[i]));
+            }
+            sb.append('\n');
+        }
         sb.append("verdict: ").append(verdict.sustainable() ? "SUSTAINABLE" : "NOT SUSTAINABLE").append('\n');
         for (String r : verdict.reasons()) {
             sb.append("  - ").append(r).append('\n');

@@ -17,6 +17,10 @@ import java.util.List;
  *       ratio measures cache misses, not the machine;</li>
  *   <li>the run was not aborted, and at least one reply came back.</li>
  * </ol>
+ * With an I/O floor (the same spin plus one loopback datagram exchange per tick with a bare
+ * echo, see {@code SpinFloor.FloorIo}) the reasons also compare the loop with it, for
+ * information: what the I/O floor already shows is the machine's price of exchanging with a
+ * peer on another core, not the loop's. The verdict itself stays the rules above.
  */
 public record PreflightVerdict(boolean sustainable, List<String> reasons) {
     public static final double LATENESS_RATIO = 1.5;
@@ -26,6 +30,30 @@ public record PreflightVerdict(boolean sustainable, List<String> reasons) {
         return judge(floor.stalls(), floor.latenessNs().getValueAtPercentile(99.9), loop.overruns,
                 loop.latenessNs.getValueAtPercentile(99.9),
                 loop.aborted() ? loop.stopReason + " " + loop.stopDetail : null, loop.repliesApplied);
+    }
+
+    /** Same, with the I/O floor's comparison added to the reasons (null: none measured). */
+    public static PreflightVerdict judge(SpinFloor.Result floor, LoopResult loop, SpinFloor.Result ioFloor) {
+        final PreflightVerdict v = judge(floor, loop);
+        if (ioFloor == null) {
+            return v;
+        }
+        final List<String> why = new ArrayList<>(v.reasons());
+        why.add(ioFloorComparison(ioFloor.stalls(), ioFloor.latenessNs().getValueAtPercentile(99.9), floor.stalls(),
+                loop.overruns, loop.latenessNs.getValueAtPercentile(99.9)));
+        return new PreflightVerdict(v.sustainable(), List.copyOf(why));
+    }
+
+    /** The informational line comparing the loop with the I/O floor. */
+    static String ioFloorComparison(long ioStalls, long ioP999Ns, long floorStalls, long loopOverruns, long loopP999Ns) {
+        return String.format(java.util.Locale.ROOT, "for reference, the I/O floor (same spin, one datagram a tick to a bare "
+                        + "echo, no plant): %d stalls (%s the floor's), p99.9 %.2f us; loop overruns %s its stalls, "
+                        + "loop p99.9 %s its p99.9", ioStalls, ratio(ioStalls, floorStalls), ioP999Ns / 1e3,
+                ratio(loopOverruns, ioStalls), ratio(loopP999Ns, Math.max(RESOLUTION_NS, ioP999Ns)));
+    }
+
+    private static String ratio(long a, long b) {
+        return b <= 0 ? (a <= 0 ? "1.00 x" : "above") : String.format(java.util.Locale.ROOT, "%.2f x", (double) a / b);
     }
 
     /**

@@ -34,7 +34,7 @@ class PreflightCommandTest {
         StringWriter out = new StringWriter();
         StringWriter err = new StringWriter();
         Path hlog = dir.resolve("timing.hlog");
-        int code = run(out, err, "preflight", "--seconds", "0.4", "--step-us", "50", "--json", "--hlog", hlog.toString());
+        int code = run(out, err, "preflight", "--seconds", "0.4", "--step-us", "50", "--warmup", "0.2", "--json", "--hlog", hlog.toString());
         JsonNode j = new ObjectMapper().readTree(out.toString());
         assertEquals(50, j.get("step_us").asLong());
         assertEquals(0.4, j.get("seconds").asDouble(), 1e-12);
@@ -51,6 +51,14 @@ class PreflightCommandTest {
         assertTrue(j.get("loop").get("replies_applied").asLong() > 0, "the virtual board answered over UDP");
         assertTrue(j.get("loop").get("rtt_us").get("max").asDouble() > 0.0);
         assertEquals(j.get("sustainable").asBoolean() ? 0 : 1, code, out + " " + err);
+        assertEquals(0.2, j.get("warmup_s").asDouble(), 1e-12);
+        JsonNode io = j.get("io_floor");
+        for (String p : new String[] {"p50", "p99", "p999", "p9999", "max"}) {
+            assertTrue(io.get("lateness_us").has(p), p);
+        }
+        assertEquals(8000, io.get("ticks").asLong(), "the I/O floor runs as long as the floor");
+        assertTrue(io.get("echoes").asLong() > 0, "the echo answered over UDP");
+        assertEquals(1, j.get("per_round").get("io_floor_stalls").size());
         try (HistogramLogReader r = new HistogramLogReader(hlog.toFile())) {
             assertTrue(r.nextIntervalHistogram() != null, "timing log written");
         }
@@ -59,10 +67,23 @@ class PreflightCommandTest {
     @Test
     void shouldPrintTableWithVerdict() {
         StringWriter out = new StringWriter();
-        int code = run(out, new StringWriter(), "preflight", "--seconds", "0.2");
+        int code = run(out, new StringWriter(), "preflight", "--seconds", "0.2", "--warmup", "0.1");
         String text = out.toString();
-        assertTrue(text.contains("floor lateness") && text.contains("loop rtt"), text);
+        assertTrue(text.contains("floor lateness") && text.contains("i/o floor") && text.contains("loop rtt"), text);
+        assertTrue(text.contains("warm-up: 100000 exchanges offline, then 0.1 s"), text);
         assertTrue(text.contains(code == 0 ? "verdict: SUSTAINABLE" : "verdict: NOT SUSTAINABLE"), text);
+    }
+
+    @Test
+    void shouldSkipTheIoFloorAndTheWarmUpWhenAsked() throws Exception {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int code = run(out, err, "preflight", "--seconds", "0.2", "--no-io-floor", "--warmup", "0", "--json");
+        JsonNode j = new ObjectMapper().readTree(out.toString());
+        assertTrue(!j.has("io_floor"), out.toString());
+        assertEquals(0.0, j.get("warmup_s").asDouble(), 0.0);
+        assertEquals(4000, j.get("loop").get("exchanges").asLong());
+        assertEquals(j.get("sustainable").asBoolean() ? 0 : 1, code, err.toString());
     }
 
     @Test
@@ -70,6 +91,9 @@ class PreflightCommandTest {
         StringWriter err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--step-us", "0"));
         assertTrue(err.toString().contains("--step-us"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--warmup", "-1"));
+        assertTrue(err.toString().contains("--warmup"), err.toString());
         err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "-1"));
         assertTrue(err.toString().contains("--seconds"), err.toString());

@@ -40,4 +40,15 @@ class PreflightVerdictTest {
         assertFalse(silent.sustainable());
         assertTrue(silent.reasons().contains("the board never answered"));
     }
+
+    @Test
+    void shouldStateTheLoopAgainstTheIoFloorAsRatios() {
+        String line = PreflightVerdict.ioFloorComparison(750, 519_420, 402, 798, 983_550);
+        assertTrue(line.contains("750 stalls (1.87 x the floor's)"), line);
+        assertTrue(line.contains("p99.9 519.42 us"), line);
+        assertTrue(line.contains("loop overruns 1.06 x its stalls"), line);
+        assertTrue(line.contains("loop p99.9 1.89 x its p99.9"), line);
+        assertTrue(PreflightVerdict.ioFloorComparison(0, 0, 0, 0, 500).contains("1.00 x its stalls"));
+        assertTrue(PreflightVerdict.ioFloorComparison(0, 0, 0, 3, 500).contains("above its stalls"));
+    }
 }
