@@ -168,12 +168,12 @@ public final class PreflightCommand implements Callable<Integer> {
             final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
                     .durationSteps(roundSteps).realTime(true).pinCpu(pinCpu)
                     .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
-            final String warmup = warmUp(params, stepNs, link, pinCpu);
+            final boolean measureIo = ioFloor && (boardUri == null || boardUri.startsWith("udp://"));
+            final String warmup = warmUp(params, stepNs, link, pinCpu, measureIo);
             final long baseMs = System.currentTimeMillis();
             final List<SpinFloor.Result> floors = new ArrayList<>();
             final List<LoopResult> loops = new ArrayList<>();
             final List<SpinFloor.Result> ioFloors = new ArrayList<>();
-            final boolean measureIo = ioFloor && (boardUri == null || boardUri.startsWith("udp://"));
             long echoes = 0;
             for (int round = 0; round < n; round++) {
                 floors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu));
@@ -209,6 +209,9 @@ public final class PreflightCommand implements Callable<Integer> {
         }
     }
 
+    /** Seconds of floor (and of I/O floor) in the warm-up round. */
+    static final double WARMUP_FLOOR_S = 0.5;
+
     /** Exchanges of the offline part of the warm-up (about a second on a slow machine). */
     static final long WARMUP_OFFLINE_EXCHANGES = 100_000;
 
@@ -218,13 +221,18 @@ public final class PreflightCommand implements Callable<Integer> {
      * a 2-core VM: a cold 10 s loop had 2 114 overruns and a 9 ms worst lateness, nearly all in
      * its first second; after a 2 s warm-up 501, against 269 floor stalls). First an offline
      * burst with the in-process reference (or hold) controller on a scratch plant compiles the
-     * plant, loop, codec and controller; then {@code warmupS} seconds in real time against the
-     * board itself compile the link and the board's side, and the link is drained and its
-     * counters reset.
+     * plant, loop, codec and controller; then one uncounted round: the floor and the I/O floor
+     * for {@value #WARMUP_FLOOR_S} s each and the loop for {@code warmupS} seconds in real time
+     * against the board itself, which compiles the link and the board's side. The uncounted round
+     * matters: the I/O floor and the loop share the JDK's socket code, and C2 compiles it for
+     * the pattern it has seen; the first switch from one to the other took branches never taken
+     * before, the JIT threw its code away and the first counted round ran partly interpreted
+     * (measured: a first round with 4 789 overruns, the eleven after it 200-1 500 each).
+     * Finally the link is drained and its counters reset.
      *
      * @return a one-line description for the report
      */
-    private String warmUp(TurbineParameters params, long stepNs, BoardLink link, int pin) throws InterruptedException {
+    private String warmUp(TurbineParameters params, long stepNs, BoardLink link, int pin, boolean withIo) throws InterruptedException {
         if (warmupS <= 0.0) {
             return "none";
         }
@@ -241,6 +249,13 @@ public final class PreflightCommand implements Callable<Integer> {
         } finally {
             offline.close();
         }
+        final long floorNs = Math.max(stepNs, Math.round(WARMUP_FLOOR_S * 1e9));
+        SpinFloor.measure(stepNs, floorNs, pin);
+        if (withIo) {
+            try (UdpEchoFloor echo = new UdpEchoFloor(WireProfile.FULL.measurementLength)) {
+                SpinFloor.measure(stepNs, floorNs, pin, echo);
+            }
+        }
         final TurbinePlant plant = new TurbinePlant(params, stepNs);
         plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
         final LoopConfig rc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
@@ -250,8 +265,9 @@ public final class PreflightCommand implements Callable<Integer> {
         drain(link);
         link.counters().reset();
         System.gc();
-        return String.format(java.util.Locale.ROOT, "%d exchanges offline, then %.1f s in real time against the board "
-                + "(%d overruns, not counted)", WARMUP_OFFLINE_EXCHANGES, warmupS, w.overruns);
+        return String.format(java.util.Locale.ROOT, "%d exchanges offline, then one round not counted: floor%s %.1f s, "
+                + "loop %.1f s in real time against the board (%d overruns)", WARMUP_OFFLINE_EXCHANGES,
+                withIo ? " and I/O floor" : "", WARMUP_FLOOR_S, warmupS, w.overruns);
     }
 
     /** Seconds of floor plus seconds of loop per round when --rounds is not given. */

@@ -70,7 +70,7 @@ class PreflightCommandTest {
         int code = run(out, new StringWriter(), "preflight", "--seconds", "0.2", "--warmup", "0.1");
         String text = out.toString();
         assertTrue(text.contains("floor lateness") && text.contains("i/o floor") && text.contains("loop rtt"), text);
-        assertTrue(text.contains("warm-up: 100000 exchanges offline, then 0.1 s"), text);
+        assertTrue(text.contains("warm-up: 100000 exchanges offline, then one round not counted: floor and I/O floor 0.5 s, loop 0.1 s"), text);
         assertTrue(text.contains(code == 0 ? "verdict: SUSTAINABLE" : "verdict: NOT SUSTAINABLE"), text);
     }
 

@@ -41,9 +41,15 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
  * received data) and writes the numbers to {@code target/console-load.txt}; the result is
  * recorded in {@code dashboard/README.md}.
  *
+ * <p>The bench is set up as rt-plant/LOOP.md recommends: the loop thread pinned to one CPU
+ * ({@code galebench.load.pinCpu}, default 0; -1 = no pinning), the JVM's other threads (console,
+ * feed, JIT, GC) moved off it by the loop, and the browsers started off it too (through
+ * {@code taskset}, as {@code isolcpus} would keep them off on a bench PC). With
+ * {@code -Dgalebench.load.pinCpu=-1} everything shares every core, the setup to avoid.
+ *
  * <p>Run: {@code mvn -B -P soak verify -pl tests -am -Dtest=ConsoleLoadOnLoopSoakTest
  * -Dsurefire.failIfNoSpecifiedTests=false} (system properties {@code galebench.load.rounds},
- * default 3, and {@code galebench.load.seconds}, default 20).
+ * default 5, and {@code galebench.load.seconds}, default 20).
  */
 @Tag("soak")
 class ConsoleLoadOnLoopSoakTest {
@@ -54,11 +60,27 @@ class ConsoleLoadOnLoopSoakTest {
 
     private final StringBuilder consoleCpu = new StringBuilder();
     private static final long STEP_NS = Math.round(Double.parseDouble(System.getProperty("galebench.load.stepUs", "50")) * 1000);
+    private static final int PIN_CPU = Integer.getInteger("galebench.load.pinCpu",
+            Runtime.getRuntime().availableProcessors() >= 2 ? 0 : -1);
+
+    /** The CPUs other than the loop's (kernel list), or null when the loop is not pinned. */
+    private static String otherCpus() {
+        if (PIN_CPU < 0) {
+            return null;
+        }
+        StringBuilder sb = new StringBuilder();
+        for (int c = 0; c < Runtime.getRuntime().availableProcessors(); c++) {
+            if (c != PIN_CPU) {
+                sb.append(sb.length() == 0 ? "" : ",").append(c);
+            }
+        }
+        return sb.length() == 0 ? null : sb.toString();
+    }
 
     @Test
     void shouldMeasureLoopLatenessWithAndWithoutTwoOpenConsoles() throws Exception {
         Assumptions.assumeTrue(HeadlessChromium.available(), "needs /usr/bin/chromium and /usr/bin/chromedriver");
-        int rounds = Integer.getInteger("galebench.load.rounds", 3);
+        int rounds = Integer.getInteger("galebench.load.rounds", 5);
         int seconds = Integer.getInteger("galebench.load.seconds", 20);
         List<double[]> without = new ArrayList<>();
         List<double[]> sockets = new ArrayList<>();
@@ -68,6 +90,8 @@ class ConsoleLoadOnLoopSoakTest {
                 java.lang.management.ManagementFactory.getOperatingSystemMXBean().getSystemLoadAverage()));
         report.append(String.format(Locale.ROOT, "# %d rounds of %d s each, step %d us, %s%n", rounds, seconds, STEP_NS / 1000,
                 "columns: p50 p99 p99.9 max lateness (us), overruns"));
+        report.append(PIN_CPU < 0 ? "# loop not pinned; browsers on any CPU\n"
+                : String.format(Locale.ROOT, "# loop pinned to CPU %d, the JVM's other threads and the browsers on CPUs %s%n", PIN_CPU, otherCpus()));
         runLoop(seconds / 4, null); // warm-up: JIT, caches
         for (int r = 0; r < rounds; r++) {
             double[] a = runLoop(seconds, null);
@@ -101,8 +125,8 @@ class ConsoleLoadOnLoopSoakTest {
 
     private double[] runWithTwoConsoles(int seconds) throws Exception {
         try (Dashboard d = Dashboard.start(DashboardOptions.loopback(0), null, null);
-             HeadlessChromium one = new HeadlessChromium(1600, 1000);
-             HeadlessChromium two = new HeadlessChromium(1600, 1000)) {
+             HeadlessChromium one = new HeadlessChromium(1600, 1000, otherCpus());
+             HeadlessChromium two = new HeadlessChromium(1600, 1000, otherCpus())) {
             one.driver().get(d.url());
             two.driver().get(d.url());
             awaitViewers(d, 2);
@@ -168,7 +192,7 @@ class ConsoleLoadOnLoopSoakTest {
         plant.initialise(SteadyState.solve(p, 10.0, 1.0, 0.0));
         BoardLink link = BoardLinks.inProcess(BoardControllers.create(ServeBench.defaultController()));
         long steps = seconds * 1_000_000_000L / STEP_NS;
-        LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).durationSteps(steps).realTime(true).build();
+        LoopConfig cfg = LoopConfig.builder().stepPeriodNs(STEP_NS).durationSteps(steps).realTime(true).pinCpu(PIN_CPU).build();
         List<SampleConsumer> consumers = d == null ? List.of() : List.of(d.feed());
         RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, null, consumers, SampleLayout.of(plant));
         if (d != null) {
@@ -177,6 +201,7 @@ class ConsoleLoadOnLoopSoakTest {
         LoopResult r = loop.run();
         link.close();
         assertEquals(steps, r.steps, "the run completed");
+        assertTrue(PIN_CPU < 0 || r.pinning.startsWith("pinned to CPU " + PIN_CPU), r.pinning);
         assertTrue(r.linkCounters.repliesAccepted > 0);
         return new double[] {
             r.latenessNs.getValueAtPercentile(50) / 1000.0,

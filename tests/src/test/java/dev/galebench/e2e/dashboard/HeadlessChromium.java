@@ -29,13 +29,39 @@ final class HeadlessChromium implements AutoCloseable {
     private final ChromeDriver driver;
 
     HeadlessChromium(int widthPx, int heightPx) {
+        this(widthPx, heightPx, null);
+    }
+
+    /**
+     * @param cpuList null, or the CPUs (kernel list, e.g. "1-3") the driver and the browser it
+     *                starts may use: started through {@code taskset -c}, which their children
+     *                inherit. Keeps a browser on this host off the loop's core, as
+     *                {@code isolcpus} would on a bench PC.
+     */
+    HeadlessChromium(int widthPx, int heightPx, String cpuList) {
         try {
             profile = Files.createTempDirectory("galebench-chromium");
         } catch (IOException e) {
             throw new UncheckedIOException(e);
         }
+        File driverExecutable = new File(CHROMEDRIVER);
+        if (cpuList != null) {
+            if (!cpuList.matches("[0-9]+([-,][0-9]+)*")) {
+                throw new IllegalArgumentException("not a CPU list: " + cpuList);
+            }
+            Path wrapper = profile.resolve("chromedriver-on-cpus-" + cpuList.replace(',', '_'));
+            try {
+                Files.writeString(wrapper, "#!/bin/sh\nexec /usr/bin/taskset -c " + cpuList + " " + CHROMEDRIVER + " \"$@\"\n");
+            } catch (IOException e) {
+                throw new UncheckedIOException(e);
+            }
+            if (!wrapper.toFile().setExecutable(true)) {
+                throw new IllegalStateException("cannot make " + wrapper + " executable");
+            }
+            driverExecutable = wrapper.toFile();
+        }
         service = new ChromeDriverService.Builder()
-                .usingDriverExecutable(new File(CHROMEDRIVER))
+                .usingDriverExecutable(driverExecutable)
                 .usingAnyFreePort()
                 .build();
         ChromeOptions o = new ChromeOptions();
