@@ -66,6 +66,11 @@ public final class PreflightCommand implements Callable<Integer> {
             description = "Plant step and exchange period in microseconds (default: ${DEFAULT-VALUE}).")
     long stepUs;
 
+    @Option(names = "--exchange-every", paramLabel = "M", defaultValue = "1",
+            description = {"Exchange with the board every M plant steps (default: ${DEFAULT-VALUE}); the floors then tick at the exchange period,",
+                    "and overruns and stalls count lateness beyond one exchange period. Serial lines need M*N above the frame time."})
+    int exchangeEvery;
+
     @Option(names = "--board", paramLabel = "URI",
             description = "Board link URI (udp://HOST:PORT or serial:DEVICE[@BAUD]); default: the virtual board in this JVM over UDP loopback.")
     String boardUri;
@@ -122,16 +127,21 @@ public final class PreflightCommand implements Callable<Integer> {
             err.println("galebench preflight: --rounds " + rounds + " is out of range [0, 10000]");
             return 2;
         }
+        if (exchangeEvery < 1 || exchangeEvery > 10_000) {
+            err.println("galebench preflight: --exchange-every " + exchangeEvery + " is out of range [1, 10000]");
+            return 2;
+        }
         final long stepNs = stepUs * 1_000;
+        final long exchangeNs = stepNs * exchangeEvery;
         final long durationNs = (long) (seconds * 1e9);
-        if (durationNs < stepNs) {
-            err.println("galebench preflight: --seconds " + seconds + " is shorter than one step");
+        if (durationNs < exchangeNs) {
+            err.println("galebench preflight: --seconds " + seconds + " is shorter than one exchange");
             return 2;
         }
         final int n = rounds > 0 ? rounds : (int) Math.max(1, Math.ceil(seconds / SECONDS_PER_ROUND));
-        final long roundSteps = durationNs / stepNs / n;
-        if (roundSteps < 1) {
-            err.println("galebench preflight: --rounds " + n + " leaves less than one step per round");
+        final long roundExchanges = durationNs / exchangeNs / n;
+        if (roundExchanges < 1) {
+            err.println("galebench preflight: --rounds " + n + " leaves less than one exchange per round");
             return 2;
         }
         final TurbineParameters params = TurbineFile.defaults();
@@ -147,7 +157,7 @@ public final class PreflightCommand implements Callable<Integer> {
                 final String name = controllerName != null ? controllerName : defaultController();
                 final BoardController controller = BoardControllers.create(name);
                 board = VirtualBoard.udp(new InetSocketAddress(InetAddress.getLoopbackAddress(), 0),
-                        WireProfile.FULL, controller, stepNs * 1e-9);
+                        WireProfile.FULL, controller, exchangeNs * 1e-9);
                 final VirtualBoard b = board;
                 boardThread = new Thread(b::run, "galebench-board");
                 boardThread.setDaemon(true);
@@ -165,21 +175,21 @@ public final class PreflightCommand implements Callable<Integer> {
         try {
             final TurbinePlant plant = new TurbinePlant(params, stepNs);
             plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
-            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
-                    .durationSteps(roundSteps).realTime(true).pinCpu(pinCpu)
+            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(exchangeEvery)
+                    .durationSteps(roundExchanges * exchangeEvery).realTime(true).pinCpu(pinCpu)
                     .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
             final boolean measureIo = ioFloor && (boardUri == null || boardUri.startsWith("udp://"));
-            final String warmup = warmUp(params, stepNs, link, pinCpu, measureIo);
+            final String warmup = warmUp(params, stepNs, exchangeEvery, link, pinCpu, measureIo);
             final long baseMs = System.currentTimeMillis();
             final List<SpinFloor.Result> floors = new ArrayList<>();
             final List<LoopResult> loops = new ArrayList<>();
             final List<SpinFloor.Result> ioFloors = new ArrayList<>();
             long echoes = 0;
             for (int round = 0; round < n; round++) {
-                floors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu));
+                floors.add(SpinFloor.measure(exchangeNs, roundExchanges * exchangeNs, pinCpu));
                 if (measureIo) {
                     try (UdpEchoFloor echo = new UdpEchoFloor(WireProfile.FULL.measurementLength)) {
-                        ioFloors.add(SpinFloor.measure(stepNs, roundSteps * stepNs, pinCpu, echo));
+                        ioFloors.add(SpinFloor.measure(exchangeNs, roundExchanges * exchangeNs, pinCpu, echo));
                         echoes += echo.echoed();
                     }
                 }
@@ -196,6 +206,7 @@ public final class PreflightCommand implements Callable<Integer> {
             }
             final PreflightVerdict verdict = PreflightVerdict.judge(floor, result, io);
             final PreflightReport report = new PreflightReport(stepUs, seconds, n, boardText, floor, result, verdict)
+                    .exchangeEvery(exchangeEvery)
                     .warmup(warmupS, warmup).perRound(floors, loops).ioFloor(io, echoes, ioFloors);
             out.print(json ? report.json() + System.lineSeparator() : report.text());
             out.flush();
@@ -232,34 +243,35 @@ public final class PreflightCommand implements Callable<Integer> {
      *
      * @return a one-line description for the report
      */
-    private String warmUp(TurbineParameters params, long stepNs, BoardLink link, int pin, boolean withIo) throws InterruptedException {
+    private String warmUp(TurbineParameters params, long stepNs, int m, BoardLink link, int pin, boolean withIo) throws InterruptedException {
+        final long exchangeNs = stepNs * m;
         if (warmupS <= 0.0) {
             return "none";
         }
         final BoardController c = BoardControllers.create(controllerName != null && boardUri == null ? controllerName : defaultController());
-        c.setSamplePeriod(stepNs * 1e-9);
+        c.setSamplePeriod(exchangeNs * 1e-9);
         final TurbinePlant scratch = new TurbinePlant(params, stepNs);
         scratch.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
         final BoardLink offline = BoardLinks.inProcess(c);
         try {
-            final LoopConfig oc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
-                    .durationSteps(WARMUP_OFFLINE_EXCHANGES).realTime(false)
+            final LoopConfig oc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(m)
+                    .durationSteps(WARMUP_OFFLINE_EXCHANGES * m).realTime(false)
                     .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
             new RealTimeLoop(oc, scratch, offline, null, List.of(new Discard()), SampleLayout.of(scratch)).run();
         } finally {
             offline.close();
         }
-        final long floorNs = Math.max(stepNs, Math.round(WARMUP_FLOOR_S * 1e9));
-        SpinFloor.measure(stepNs, floorNs, pin);
+        final long floorNs = Math.max(exchangeNs, Math.round(WARMUP_FLOOR_S * 1e9));
+        SpinFloor.measure(exchangeNs, floorNs, pin);
         if (withIo) {
             try (UdpEchoFloor echo = new UdpEchoFloor(WireProfile.FULL.measurementLength)) {
-                SpinFloor.measure(stepNs, floorNs, pin, echo);
+                SpinFloor.measure(exchangeNs, floorNs, pin, echo);
             }
         }
         final TurbinePlant plant = new TurbinePlant(params, stepNs);
         plant.initialise(SteadyState.solve(params, 0.8 * params.ratedWindMPerS, 1.0, 0.0));
-        final LoopConfig rc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(1)
-                .durationSteps(Math.max(1, Math.round(warmupS * 1e9 / stepNs))).realTime(true).pinCpu(pin)
+        final LoopConfig rc = LoopConfig.builder().stepPeriodNs(stepNs).exchangeEverySteps(m)
+                .durationSteps(Math.max(1, Math.round(warmupS * 1e9 / exchangeNs)) * m).realTime(true).pinCpu(pin)
                 .pitchRefLimitsRad(params.pitchMinRad, params.pitchMaxRad).build();
         final LoopResult w = new RealTimeLoop(rc, plant, link, null, List.of(new Discard()), SampleLayout.of(plant)).run();
         drain(link);

@@ -30,6 +30,7 @@ public final class PreflightReport {
     private final LoopResult loop;
     private final PreflightVerdict verdict;
     private double warmupS;
+    private int exchangeEvery = 1;
     private String warmup = "none";
     private long[] roundStalls = new long[0];
     private long[] roundOverruns = new long[0];
@@ -47,6 +48,12 @@ public final class PreflightReport {
         this.floor = floor;
         this.loop = loop;
         this.verdict = verdict;
+    }
+
+    /** Records the exchange period in plant steps (default 1). */
+    public PreflightReport exchangeEvery(int m) {
+        this.exchangeEvery = m;
+        return this;
     }
 
     /** Records the warm-up that ran before the measurement (seconds of real time, and a one-line description). */
@@ -78,6 +85,8 @@ public final class PreflightReport {
         ObjectNode root = om.createObjectNode();
         root.put("step_us", stepUs);
         root.put("seconds", seconds);
+        root.put("exchange_every", exchangeEvery);
+        root.put("exchange_us", stepUs * exchangeEvery);
         root.put("rounds", rounds);
         root.put("warmup_s", warmupS);
         ObjectNode f = root.putObject("floor");
@@ -138,8 +147,9 @@ public final class PreflightReport {
     /** The human-readable table. */
     public String text() {
         StringBuilder sb = new StringBuilder();
-        sb.append(String.format(Locale.ROOT, "galebench preflight: step %d us, %.1f s of floor and %.1f s of loop, alternating in %d round(s)%n",
-                stepUs, seconds, seconds, rounds));
+        sb.append(String.format(Locale.ROOT, "galebench preflight: step %d us%s, %.1f s of floor and %.1f s of loop, alternating in %d round(s)%n",
+                stepUs, exchangeEvery == 1 ? "" : String.format(Locale.ROOT, ", exchange every %d steps (%d us)", exchangeEvery, stepUs * exchangeEvery),
+                seconds, seconds, rounds));
         sb.append("board: ").append(board).append('\n');
         sb.append("pinning: ").append(loop.pinning).append('\n');
         sb.append("warm-up: ").append(warmup).append('\n');

@@ -87,10 +87,29 @@ class PreflightCommandTest {
     }
 
     @Test
+    void shouldTickTheFloorsAtTheExchangePeriodWhenExchangingEveryMSteps() throws Exception {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int code = run(out, err, "preflight", "--seconds", "0.4", "--step-us", "50", "--exchange-every", "4",
+                "--warmup", "0.1", "--json");
+        JsonNode j = new ObjectMapper().readTree(out.toString());
+        assertEquals(4, j.get("exchange_every").asInt());
+        assertEquals(200, j.get("exchange_us").asLong());
+        assertEquals(2000, j.get("loop").get("exchanges").asLong(), "0.4 s of 200 us exchanges");
+        assertEquals(2000, j.get("floor").get("ticks").asLong(), "the floor ticks at the exchange period");
+        assertEquals(2000, j.get("io_floor").get("ticks").asLong());
+        assertTrue(j.get("loop").get("replies_applied").asLong() > 0, err.toString());
+        assertEquals(j.get("sustainable").asBoolean() ? 0 : 1, code, err.toString());
+    }
+
+    @Test
     void shouldRejectBadInputWithExitTwo() {
         StringWriter err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--step-us", "0"));
         assertTrue(err.toString().contains("--step-us"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--exchange-every", "0"));
+        assertTrue(err.toString().contains("--exchange-every"), err.toString());
         err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--warmup", "-1"));
         assertTrue(err.toString().contains("--warmup"), err.toString());
