@@ -8,6 +8,7 @@ import java.io.InputStreamReader;
 import java.io.PrintWriter;
 import java.net.URISyntaxException;
 import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -49,6 +50,11 @@ public final class DemoCommand implements Callable<Integer> {
                     + "0 = strict real time (default: ${DEFAULT-VALUE}).")
     double replyWaitUs;
 
+    @Option(names = "--pin-cpu", paramLabel = "CPU", defaultValue = "-1",
+            description = "Real time: pin the loop thread to this CPU and keep this process's other threads off it "
+                    + "(Linux, taskset; see rt-plant/LOOP.md); -1 = no pinning (default).")
+    int pinCpu;
+
     @Option(names = "--quiet", description = "No progress bar.")
     boolean quiet;
 
@@ -59,7 +65,8 @@ public final class DemoCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         PrintWriter w = spec.commandLine().getOut();
         var seq = SequenceLibrary.load(sequence);
-        List<String> cmd = boardCommand(seq.stepUs() * seq.exchangeEvery());
+        final int pin = RunCommand.checkPinCpu(pinCpu);
+        List<String> cmd = boardCommand(seq.stepUs() * seq.exchangeEvery(), pin);
         w.println("demo: starting the virtual board: " + String.join(" ", cmd));
         w.flush();
         Process board = new ProcessBuilder(cmd).redirectErrorStream(false)
@@ -74,6 +81,7 @@ public final class DemoCommand implements Callable<Integer> {
             o.outBase = out;
             o.progress = !quiet;
             o.replyWaitUs = replyWaitUs;
+            o.pinCpu = pin;
             SequenceRunner.Result r;
             try (dev.galebench.dashboard.Dashboard d = dashboard.startIfAsked(
                     dev.galebench.dashboard.BenchControl.watchOnly(seq.name(), () -> { }), into -> { }, w)) {
@@ -94,10 +102,26 @@ public final class DemoCommand implements Callable<Integer> {
     }
 
     /** Same java, same jar (or class path), {@code board --udp 127.0.0.1:0 --controller reference}. */
-    static List<String> boardCommand(double periodUs) throws URISyntaxException {
+    /**
+     * The board process's command line; with {@code pinCpu >= 0} it starts under
+     * {@code taskset -c} with every CPU but that one, so the board never takes the loop's core.
+     */
+    static List<String> boardCommand(double periodUs, int pinCpu) throws URISyntaxException {
         String java = ProcessHandle.current().info().command().orElse(Path.of(System.getProperty("java.home"), "bin",
                 "java").toString());
         List<String> cmd = new ArrayList<>();
+        final int n = Runtime.getRuntime().availableProcessors();
+        if (pinCpu >= 0 && n > 1 && Files.isExecutable(Path.of("/usr/bin/taskset"))) {
+            StringBuilder others = new StringBuilder();
+            for (int c = 0; c < n; c++) {
+                if (c != pinCpu) {
+                    others.append(others.length() == 0 ? "" : ",").append(c);
+                }
+            }
+            cmd.add("/usr/bin/taskset");
+            cmd.add("-c");
+            cmd.add(others.toString());
+        }
         cmd.add(java);
         cmd.add("-Xmx256m");
         Path self = Path.of(GalebenchCommand.class.getProtectionDomain().getCodeSource().getLocation().toURI());

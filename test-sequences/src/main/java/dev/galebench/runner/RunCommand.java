@@ -54,11 +54,25 @@ public final class RunCommand implements Callable<Integer> {
     @Option(names = "--csv", description = "Also write signals.csv (every signal, every exchange).")
     boolean csv;
 
+    @Option(names = "--pin-cpu", paramLabel = "CPU", defaultValue = "-1",
+            description = "Real time: pin the loop thread to this CPU and keep this process's other threads off it "
+                    + "(Linux, taskset; see rt-plant/LOOP.md); -1 = no pinning (default).")
+    int pinCpu;
+
     @Option(names = "--quiet", description = "No progress bar.")
     boolean quiet;
 
     @picocli.CommandLine.Mixin
     dev.galebench.dashboard.DashboardOption dashboard;
+
+    /** Validates a --pin-cpu value against this machine's CPUs. */
+    public static int checkPinCpu(int cpu) {
+        final int n = Runtime.getRuntime().availableProcessors();
+        if (cpu < -1 || cpu >= n) {
+            throw new IllegalArgumentException("--pin-cpu " + cpu + " is outside -1 .. " + (n - 1) + " (this machine has " + n + " CPUs)");
+        }
+        return cpu;
+    }
 
     @Override
     public Integer call() throws Exception {
@@ -83,6 +97,7 @@ public final class RunCommand implements Callable<Integer> {
             throw new IllegalArgumentException("--reply-wait-us " + replyWaitUs + " is outside 0 .. 10000000");
         }
         o.replyWaitUs = replyWaitUs;
+        o.pinCpu = checkPinCpu(pinCpu);
         o.csv = csv;
         o.progress = !quiet;
         o.err = err;

@@ -105,6 +105,11 @@ public final class SequenceRunner {
          * microseconds for a late reply, pausing plant time (counted as overruns); see LoopConfig.
          */
         public double replyWaitUs;
+        /**
+         * Real-time runs: pin the loop thread to this CPU and keep this process's other threads
+         * off it for the run ({@code LoopConfig.pinCpu}); -1 = no pinning.
+         */
+        public int pinCpu = -1;
         /** Live web console to feed (started by the command's --dashboard option), or null. */
         public dev.galebench.dashboard.Dashboard dashboard;
         /** Gets each check's verdict as soon as its window has passed (live consoles), or null. */
@@ -235,6 +240,7 @@ public final class SequenceRunner {
                 .watchdogNs(Math.round(seq.watchdogUs() * 1000.0))
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
                 .replyWaitNs(Math.round(o.replyWaitUs * 1000.0))
+                .pinCpu(o.offline || o.replayReplies != null ? -1 : o.pinCpu)
                 .build();
         final TripAbortHook hook = new TripAbortHook(schedule, seq.allowedTripMask());
         final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link != null ? link : board, hook, consumers, layout);
@@ -329,6 +335,7 @@ public final class SequenceRunner {
                 .watchdogNs(1_000_000_000L)
                 .pitchRefLimitsRad(s.turbine.pitchMinRad - Math.toRadians(1), s.turbine.pitchMaxRad + Math.toRadians(1))
                 .replyWaitNs(Math.round(o.replyWaitUs * 1000.0))
+                .pinCpu(o.pinCpu)
                 .build();
         LoopResult w = new RealTimeLoop(cfg, plant, board, null, List.of(), SampleLayout.of(plant)).run();
         if (o.progress) {

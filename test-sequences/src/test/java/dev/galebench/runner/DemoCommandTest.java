@@ -46,4 +46,32 @@ class DemoCommandTest {
         assertEquals(childrenBefore, ProcessHandle.current().children().filter(ProcessHandle::isAlive).count(),
                 "the board process was stopped");
     }
+
+    @Test
+    void shouldPinTheLoopAndStartTheBoardOffItsCpu(@TempDir Path dir) throws Exception {
+        org.junit.jupiter.api.Assumptions.assumeTrue(Runtime.getRuntime().availableProcessors() >= 2
+                && Files.isExecutable(Path.of("/usr/bin/taskset")), "needs two CPUs and taskset");
+        CommandLine cl = GalebenchCommand.commandLine();
+        StringWriter out = new StringWriter(), err = new StringWriter();
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        int code = cl.execute("demo", "--sequence", "phase-jump-20deg", "--quiet", "--out", dir.toString(), "--pin-cpu", "0");
+        String text = out.toString();
+        assertTrue(code == 0 || code == 1, "exit " + code + "\n" + text + err);
+        assertTrue(text.contains("starting the virtual board: /usr/bin/taskset -c 1"), text);
+        Matcher report = Pattern.compile("demo: report (\\S+report\\.html)").matcher(text);
+        assertTrue(report.find(), text);
+        String summary = Files.readString(Path.of(report.group(1)).getParent().resolve("summary.json"));
+        assertTrue(summary.contains("pinned to CPU 0") && summary.contains("other threads on CPUs 1"), summary);
+    }
+
+    @Test
+    void shouldRejectACpuThisMachineDoesNotHave() {
+        CommandLine cl = GalebenchCommand.commandLine();
+        StringWriter out = new StringWriter(), err = new StringWriter();
+        cl.setOut(new PrintWriter(out));
+        cl.setErr(new PrintWriter(err));
+        assertEquals(2, cl.execute("demo", "--quiet", "--pin-cpu", "4096"));
+        assertTrue(err.toString().contains("--pin-cpu 4096"), err.toString());
+    }
 }

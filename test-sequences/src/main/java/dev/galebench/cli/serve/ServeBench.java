@@ -71,9 +71,10 @@ public final class ServeBench implements BenchControl, AutoCloseable {
      * @param windMPerS      wind of the first free run, m/s
      * @param sessionDir     folder for {@code controls.log} and sequence runs
      * @param holdAfterSequenceS how long a finished sequence's plots stay before the free run resumes, s
+     * @param pinCpu         CPU for the loop thread (the process's other threads kept off it), -1 = no pinning
      */
     public record Settings(TurbineParameters turbine, long stepPeriodNs, String board, String controller,
-                           double windMPerS, Path sessionDir, double holdAfterSequenceS) {
+                           double windMPerS, Path sessionDir, double holdAfterSequenceS, int pinCpu) {
     }
 
     private final Settings settings;
@@ -172,7 +173,8 @@ public final class ServeBench implements BenchControl, AutoCloseable {
             final double wind = windMPerS;
             plant.initialise(SteadyState.solve(p, wind, 1.0, 0.0));
             final BenchMailbox box = new BenchMailbox(new LinkFaultMenu(faults));
-            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(settings.stepPeriodNs()).realTime(true).build();
+            final LoopConfig cfg = LoopConfig.builder().stepPeriodNs(settings.stepPeriodNs()).realTime(true)
+                    .pinCpu(settings.pinCpu()).build();
             final RealTimeLoop loop = new RealTimeLoop(cfg, plant, link, box, List.of(dashboard.feed()), SampleLayout.of(plant));
             dashboard.timingSource(TimingSource.of(loop, link));
             mailbox = box;
@@ -207,6 +209,7 @@ public final class ServeBench implements BenchControl, AutoCloseable {
             SequenceRunner.Options o = new SequenceRunner.Options();
             o.board = settings.board();
             o.outBase = settings.sessionDir();
+            o.pinCpu = settings.pinCpu();
             o.progress = false;
             o.err = runnerLog;
             logLine("sequence " + name + " started (" + runId + ")");

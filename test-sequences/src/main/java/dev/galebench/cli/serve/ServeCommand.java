@@ -67,6 +67,11 @@ public final class ServeCommand implements Callable<Integer> {
     @Option(names = "--hold-s", paramLabel = "S", description = "After a sequence, keep its plots this long before the free run resumes (default ${DEFAULT-VALUE}).")
     double holdS = 10.0;
 
+    @Option(names = "--pin-cpu", paramLabel = "CPU", defaultValue = "-1",
+            description = "Pin the loop thread to this CPU and keep this process's other threads (console included) off it "
+                    + "(Linux, taskset; see rt-plant/LOOP.md); -1 = no pinning (default).")
+    int pinCpu;
+
     @Option(names = "--seconds", paramLabel = "S", description = "Stop after S seconds of wall time (default 0 = until interrupted).")
     double seconds;
 
@@ -108,7 +113,7 @@ public final class ServeCommand implements Callable<Integer> {
         }
         String stamp = ZonedDateTime.now(ZoneOffset.UTC).format(DateTimeFormatter.ofPattern("yyyyMMdd-HHmmss"));
         ServeBench bench = new ServeBench(new ServeBench.Settings(params, Math.round(stepUs * 1000), board, law, windMPerS,
-                runsDir.resolve("serve-" + stamp), holdS));
+                runsDir.resolve("serve-" + stamp), holdS, dev.galebench.runner.RunCommand.checkPinCpu(pinCpu)));
         CountDownLatch closed = new CountDownLatch(1);
         // On SIGTERM/Ctrl-C: wake the main thread and give it time to stop the loop and the server.
         Thread hook = new Thread(() -> {

@@ -66,7 +66,11 @@ final class HeadlessChromium implements AutoCloseable {
                 .build();
         ChromeOptions o = new ChromeOptions();
         o.setBinary(CHROMIUM);
-        o.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-dev-shm-usage",
+        // --disable-software-rasterizer: without a GPU, Chromium's GPU process starts a software
+        // renderer whose worker threads each pin themselves to one CPU (sched_setaffinity), the
+        // loop's included, whatever taskset the browser was started under (seen in
+        // /proc/PID/task/*/status). The console draws on a 2D canvas and needs none of it.
+        o.addArguments("--headless=new", "--no-sandbox", "--disable-gpu", "--disable-software-rasterizer", "--disable-dev-shm-usage",
                 "--disable-background-networking", "--disable-component-update", "--disable-sync",
                 "--no-first-run", "--user-data-dir=" + profile, "--window-size=" + widthPx + "," + heightPx);
         driver = new ChromeDriver(service, o);
