@@ -17,21 +17,13 @@ final class CpuPinning {
     private CpuPinning() {
     }
 
-    /** What {@link #isolate} did, and how to undo it. */
-    static final class Isolation {
-        private final String outcome;
-        private final String restoreList;
-
-        private Isolation(String outcome, String restoreList) {
-            this.outcome = outcome;
-            this.restoreList = restoreList;
-        }
-
-        /** One line: "other threads on CPUs 1-3" or why not. */
-        String outcome() {
-            return outcome;
-        }
-
+    /**
+     * What {@link #isolate} did, and how to undo it.
+     *
+     * @param outcome     one line: "other threads on CPUs 1-3" or why not
+     * @param restoreList the CPU list to put every thread back on, or null if nothing was moved
+     */
+    record Isolation(String outcome, String restoreList) {
         /** Puts every thread of this process back on the CPUs it had before (no-op if nothing was moved). */
         void restore() {
             if (restoreList != null) {
