@@ -97,6 +97,11 @@ public final class PreflightCommand implements Callable<Integer> {
                     "echo thread on loopback and polls for it, with no plant or controller (default: on; not for serial boards)."})
     boolean ioFloor;
 
+    @Option(names = "--sweep", split = ",", paramLabel = "US",
+            description = {"Measure each of these steps in turn, e.g. 20,30,50,100 (--seconds each), and name the smallest that holds.",
+                    "Instead of --step-us; exit 0 if at least one step holds."})
+    long[] sweep;
+
     @Option(names = "--hlog", paramLabel = "FILE", description = "Also write the loop's timing interval log here.")
     Path hlog;
 
@@ -107,13 +112,49 @@ public final class PreflightCommand implements Callable<Integer> {
     public Integer call() throws Exception {
         final PrintWriter err = spec.commandLine().getErr();
         final PrintWriter out = spec.commandLine().getOut();
+        if (exchangeEvery < 1 || exchangeEvery > 10_000) {
+            err.println("galebench preflight: --exchange-every " + exchangeEvery + " is out of range [1, 10000]");
+            return 2;
+        }
         if (!(seconds > 0.0 && seconds <= 3600.0)) {
             err.println("galebench preflight: --seconds " + seconds + " is out of range (0, 3600]");
             return 2;
         }
-        if (stepUs < 1 || stepUs > 1_000_000) {
-            err.println("galebench preflight: --step-us " + stepUs + " is out of range [1, 1000000]");
+        if (rounds < 0 || rounds > 10_000) {
+            err.println("galebench preflight: --rounds " + rounds + " is out of range [0, 10000]");
             return 2;
+        }
+        final long[] steps;
+        if (sweep != null) {
+            if (spec.commandLine().getParseResult().hasMatchedOption("--step-us")) {
+                err.println("galebench preflight: give --step-us or --sweep, not both");
+                return 2;
+            }
+            if (hlog != null) {
+                err.println("galebench preflight: --hlog writes one run's log; it does not go with --sweep");
+                return 2;
+            }
+            if (sweep.length == 0 || sweep.length > 50) {
+                err.println("galebench preflight: --sweep needs 1 to 50 steps, got " + sweep.length);
+                return 2;
+            }
+            steps = sweep.clone();
+        } else {
+            steps = new long[] {stepUs};
+        }
+        for (long st : steps) {
+            if (st < 1 || st > 1_000_000) {
+                err.println("galebench preflight: " + (sweep != null ? "--sweep step " : "--step-us ") + st + " is out of range [1, 1000000]");
+                return 2;
+            }
+            if ((long) (seconds * 1e9) < st * 1_000 * exchangeEvery) {
+                err.println("galebench preflight: --seconds " + seconds + " is shorter than one exchange at " + st + " us");
+                return 2;
+            }
+            if ((long) (seconds * 1e9) / (st * 1_000 * exchangeEvery) / roundsFor(seconds, rounds) < 1) {
+                err.println("galebench preflight: --rounds " + rounds + " leaves less than one exchange per round at " + st + " us");
+                return 2;
+            }
         }
         if (pinCpu < -1) {
             err.println("galebench preflight: --pin-cpu " + pinCpu + " must be >= -1");
@@ -123,27 +164,40 @@ public final class PreflightCommand implements Callable<Integer> {
             err.println("galebench preflight: --warmup " + warmupS + " is out of range [0, 600]");
             return 2;
         }
-        if (rounds < 0 || rounds > 10_000) {
-            err.println("galebench preflight: --rounds " + rounds + " is out of range [0, 10000]");
-            return 2;
+        if (sweep == null) {
+            final PreflightReport r = measure(steps[0], err);
+            if (r == null) {
+                return 2;
+            }
+            out.print(json ? r.json() + System.lineSeparator() : r.text());
+            out.flush();
+            return r.sustainable() ? 0 : 1;
         }
-        if (exchangeEvery < 1 || exchangeEvery > 10_000) {
-            err.println("galebench preflight: --exchange-every " + exchangeEvery + " is out of range [1, 10000]");
-            return 2;
+        final List<PreflightReport> reports = new ArrayList<>();
+        for (long st : steps) {
+            final PreflightReport r = measure(st, err);
+            if (r == null) {
+                return 2;
+            }
+            reports.add(r);
+            if (!json) {
+                out.print(r.text());
+                out.println();
+                out.flush();
+            }
         }
+        out.print(json ? PreflightReport.sweepJson(reports) + System.lineSeparator() : PreflightReport.sweepText(reports));
+        out.flush();
+        return PreflightReport.smallestSustainableStepUs(reports) > 0 ? 0 : 1;
+    }
+
+    /** One preflight at {@code stepUs}: warm-up, then floor, I/O floor and loop in rounds. Null (after saying why on err) for bad input. */
+    private PreflightReport measure(long stepUs, PrintWriter err) throws Exception {
         final long stepNs = stepUs * 1_000;
         final long exchangeNs = stepNs * exchangeEvery;
         final long durationNs = (long) (seconds * 1e9);
-        if (durationNs < exchangeNs) {
-            err.println("galebench preflight: --seconds " + seconds + " is shorter than one exchange");
-            return 2;
-        }
-        final int n = rounds > 0 ? rounds : (int) Math.max(1, Math.ceil(seconds / SECONDS_PER_ROUND));
+        final int n = roundsFor(seconds, rounds);
         final long roundExchanges = durationNs / exchangeNs / n;
-        if (roundExchanges < 1) {
-            err.println("galebench preflight: --rounds " + n + " leaves less than one exchange per round");
-            return 2;
-        }
         final TurbineParameters params = TurbineFile.defaults();
         BoardLink link;
         VirtualBoard board = null;
@@ -170,7 +224,7 @@ public final class PreflightCommand implements Callable<Integer> {
                 board.close();
             }
             err.println("galebench preflight: " + e.getMessage());
-            return 2;
+            return null;
         }
         try {
             final TurbinePlant plant = new TurbinePlant(params, stepNs);
@@ -208,9 +262,7 @@ public final class PreflightCommand implements Callable<Integer> {
             final PreflightReport report = new PreflightReport(stepUs, seconds, n, boardText, floor, result, verdict)
                     .exchangeEvery(exchangeEvery)
                     .warmup(warmupS, warmup).perRound(floors, loops).ioFloor(io, echoes, ioFloors);
-            out.print(json ? report.json() + System.lineSeparator() : report.text());
-            out.flush();
-            return verdict.sustainable() ? 0 : 1;
+            return report;
         } finally {
             link.close();
             if (board != null) {
@@ -218,6 +270,11 @@ public final class PreflightCommand implements Callable<Integer> {
                 boardThread.join(2000);
             }
         }
+    }
+
+    /** Rounds of a run of {@code seconds}: as given, or one per {@value #SECONDS_PER_ROUND} s. */
+    static int roundsFor(double seconds, int rounds) {
+        return rounds > 0 ? rounds : (int) Math.max(1, Math.ceil(seconds / SECONDS_PER_ROUND));
     }
 
     /** Seconds of floor (and of I/O floor) in the warm-up round. */

@@ -79,10 +79,76 @@ public final class PreflightReport {
         return this;
     }
 
+    /** The verdict: is the step sustainable on this machine. */
+    public boolean sustainable() {
+        return verdict.sustainable();
+    }
+
+    /** The plant step measured, us. */
+    public long stepUs() {
+        return stepUs;
+    }
+
     /** The JSON document (pretty-printed). */
     public String json() {
-        ObjectMapper om = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
-        ObjectNode root = om.createObjectNode();
+        return write(jsonNode());
+    }
+
+    private static final ObjectMapper JSON = new ObjectMapper().enable(SerializationFeature.INDENT_OUTPUT);
+
+    private static String write(ObjectNode n) {
+        try {
+            return JSON.writeValueAsString(n);
+        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
+            throw new IllegalStateException(e);
+        }
+    }
+
+    /**
+     * A sweep's JSON: {@code {"sweep": [one document per step, as {@link #json()}],
+     * "smallest_sustainable_step_us": N or null}}.
+     */
+    public static String sweepJson(java.util.List<PreflightReport> reports) {
+        ObjectNode root = JSON.createObjectNode();
+        com.fasterxml.jackson.databind.node.ArrayNode a = root.putArray("sweep");
+        for (PreflightReport r : reports) {
+            a.add(r.jsonNode());
+        }
+        final long smallest = smallestSustainableStepUs(reports);
+        if (smallest > 0) {
+            root.put("smallest_sustainable_step_us", smallest);
+        } else {
+            root.putNull("smallest_sustainable_step_us");
+        }
+        return write(root);
+    }
+
+    /** The smallest step of {@code reports} whose verdict is sustainable, or -1 if none is. */
+    public static long smallestSustainableStepUs(java.util.List<PreflightReport> reports) {
+        return reports.stream().filter(PreflightReport::sustainable).mapToLong(PreflightReport::stepUs).min().orElse(-1);
+    }
+
+    /** A sweep's summary table, one line per step, and the smallest step that holds. */
+    public static String sweepText(java.util.List<PreflightReport> reports) {
+        StringBuilder sb = new StringBuilder("sweep summary (stalls and overruns: ticks late by more than one exchange)\n");
+        sb.append(String.format(Locale.ROOT, "%8s %12s %14s %13s %12s %12s %10s  %s%n", "step us", "floor stalls",
+                "i/o fl. stalls", "loop overruns", "floor p99.9", "loop p99.9", "missing %", "verdict"));
+        for (PreflightReport r : reports) {
+            sb.append(String.format(Locale.ROOT, "%8d %12d %14s %13d %12.2f %12.2f %10.2f  %s%n", r.stepUs,
+                    r.floor.stalls(), r.ioFloor == null ? "-" : Long.toString(r.ioFloor.stalls()), r.loop.overruns,
+                    pct(r.floor.latenessNs(), 99.9), pct(r.loop.latenessNs, 99.9),
+                    100.0 * r.loop.linkCounters.missingReplies / Math.max(1, r.loop.exchanges),
+                    r.sustainable() ? "sustainable" : "not sustainable"));
+        }
+        final long smallest = smallestSustainableStepUs(reports);
+        sb.append(smallest > 0 ? "smallest step that holds: " + smallest + " us\n"
+                : "none of these steps holds on this machine now\n");
+        return sb.toString();
+    }
+
+    /** The JSON document as a tree. */
+    ObjectNode jsonNode() {
+        ObjectNode root = JSON.createObjectNode();
         root.put("step_us", stepUs);
         root.put("seconds", seconds);
         root.put("exchange_every", exchangeEvery);
@@ -125,11 +191,7 @@ public final class PreflightReport {
         root.put("pinning", loop.pinning);
         root.put("sustainable", verdict.sustainable());
         root.putPOJO("reasons", verdict.reasons());
-        try {
-            return om.writeValueAsString(root);
-        } catch (com.fasterxml.jackson.core.JsonProcessingException e) {
-            throw new IllegalStateException(e);
-        }
+        return root;
     }
 
     private static void putPercentiles(ObjectNode n, Histogram h) {

@@ -103,10 +103,56 @@ class PreflightCommandTest {
     }
 
     @Test
+    void shouldSweepStepsAndNameTheSmallestThatHolds() throws Exception {
+        StringWriter out = new StringWriter();
+        StringWriter err = new StringWriter();
+        int code = run(out, err, "preflight", "--sweep", "100,50", "--seconds", "0.2", "--warmup", "0.1", "--no-io-floor", "--json");
+        JsonNode j = new ObjectMapper().readTree(out.toString());
+        JsonNode sweep = j.get("sweep");
+        assertEquals(2, sweep.size(), out.toString());
+        assertEquals(100, sweep.get(0).get("step_us").asLong());
+        assertEquals(50, sweep.get(1).get("step_us").asLong());
+        assertEquals(2000, sweep.get(0).get("loop").get("exchanges").asLong(), "0.2 s at 100 us");
+        assertEquals(4000, sweep.get(1).get("loop").get("exchanges").asLong(), "0.2 s at 50 us");
+        // the smallest sustainable step is derived from the per-step verdicts, whatever this machine does now
+        long expected = -1;
+        for (JsonNode r : sweep) {
+            if (r.get("sustainable").asBoolean() && (expected < 0 || r.get("step_us").asLong() < expected)) {
+                expected = r.get("step_us").asLong();
+            }
+        }
+        JsonNode smallest = j.get("smallest_sustainable_step_us");
+        assertEquals(expected, smallest.isNull() ? -1 : smallest.asLong(), out.toString());
+        assertEquals(expected > 0 ? 0 : 1, code, err.toString());
+    }
+
+    @Test
+    void shouldPrintEachStepAndASweepSummaryAsText() {
+        StringWriter out = new StringWriter();
+        int code = run(out, new StringWriter(), "preflight", "--sweep", "200", "--seconds", "0.1", "--warmup", "0.1");
+        String text = out.toString();
+        assertTrue(text.contains("galebench preflight: step 200 us"), text);
+        assertTrue(text.contains("sweep summary"), text);
+        assertTrue(text.contains(code == 0 ? "smallest step that holds: 200 us" : "none of these steps holds"), text);
+    }
+
+    @Test
     void shouldRejectBadInputWithExitTwo() {
         StringWriter err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--step-us", "0"));
         assertTrue(err.toString().contains("--step-us"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--sweep", "50,0"));
+        assertTrue(err.toString().contains("--sweep step 0"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--sweep", "50", "--step-us", "50"));
+        assertTrue(err.toString().contains("not both"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--sweep", "50", "--hlog", "x.hlog"));
+        assertTrue(err.toString().contains("--hlog"), err.toString());
+        err = new StringWriter();
+        assertEquals(2, run(new StringWriter(), err, "preflight", "--seconds", "0.001", "--rounds", "100"));
+        assertTrue(err.toString().contains("less than one exchange per round"), err.toString());
         err = new StringWriter();
         assertEquals(2, run(new StringWriter(), err, "preflight", "--exchange-every", "0"));
         assertTrue(err.toString().contains("--exchange-every"), err.toString());
