@@ -3,7 +3,7 @@ package dev.galebench.e2e.control;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.galebench.board.BoardController;
+import dev.galebench.board.ForwardingBoardController;
 import dev.galebench.board.control.ControllerFile;
 import dev.galebench.board.control.ReferenceController;
 import dev.galebench.link.BoardLinks;
@@ -31,29 +31,18 @@ import org.junit.jupiter.api.Test;
  */
 class ReferenceControllerOnTheLoopTest {
     /** Passes everything through and remembers what the board reported; adds nothing to the control. */
-    private static final class Watching implements BoardController {
-        final ReferenceController inner;
+    private static final class Watching extends ForwardingBoardController {
         boolean frtSeen;
         int statusOr;
         double maxDcV;
 
         Watching(ReferenceController inner) {
-            this.inner = inner;
-        }
-
-        @Override
-        public void setSamplePeriod(double samplePeriodS) {
-            inner.setSamplePeriod(samplePeriodS);
-        }
-
-        @Override
-        public void start(SensorView first) {
-            inner.start(first);
+            super(inner);
         }
 
         @Override
         public void update(SensorView in, BoardCommand out) {
-            inner.update(in, out);
+            super.update(in, out);
             statusOr |= out.boardStatus;
             frtSeen |= (out.boardStatus & BoardCommand.BOARD_FRT_ACTIVE) != 0;
             maxDcV = Math.max(maxDcV, in.dcLinkVoltageV);

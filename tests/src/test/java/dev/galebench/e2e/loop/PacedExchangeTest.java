@@ -1,6 +1,6 @@
 package dev.galebench.e2e.loop;
 
-import dev.galebench.board.BoardController;
+import dev.galebench.board.ForwardingBoardController;
 import dev.galebench.board.VirtualBoard;
 import dev.galebench.board.control.ReferenceController;
 import dev.galebench.link.BoardLinks;
@@ -38,18 +38,11 @@ class PacedExchangeTest {
     private static final long STALL_MS = 3;
 
     /** The reference controller with a deliberate 3 ms stall every {@code STALL_EVERY} frames (a board missing its deadline). */
-    private static final class StallingController implements BoardController {
-        private final ReferenceController inner = ReferenceController.withDefaults();
+    private static final class StallingController extends ForwardingBoardController {
         private long updates;
 
-        @Override
-        public void setSamplePeriod(double samplePeriodS) {
-            inner.setSamplePeriod(samplePeriodS);
-        }
-
-        @Override
-        public void start(SensorView first) {
-            inner.start(first);
+        StallingController() {
+            super(ReferenceController.withDefaults());
         }
 
         @Override
@@ -61,7 +54,7 @@ class PacedExchangeTest {
                     Thread.currentThread().interrupt();
                 }
             }
-            inner.update(in, out);
+            super.update(in, out);
         }
     }
 
