@@ -213,7 +213,11 @@ public final class PreflightReport {
                 stepUs, exchangeEvery == 1 ? "" : String.format(Locale.ROOT, ", exchange every %d steps (%d us)", exchangeEvery, stepUs * exchangeEvery),
                 seconds, seconds, rounds));
         sb.append("board: ").append(board).append('\n');
-        sb.append("pinning: ").append(loop.pinning).append('\n');
+        sb.append("pinning: ").append(loop.pinning);
+        if ("not requested".equals(loop.pinning) && Runtime.getRuntime().availableProcessors() > 1) {
+            sb.append(" (--pin-cpu N pins the loop and keeps the rest of this process off CPU N; see rt-plant/LOOP.md)");
+        }
+        sb.append('\n');
         sb.append("warm-up: ").append(warmup).append('\n');
         final boolean io = ioFloor != null;
         sb.append(String.format(Locale.ROOT, "%-22s %14s%s %14s %14s%n", "", "floor lateness",
