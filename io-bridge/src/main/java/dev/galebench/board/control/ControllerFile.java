@@ -62,6 +62,7 @@ public final class ControllerFile {
         r("frt.exit_deviation_pu", 0.0, 0.5);
         r("frt.hold_s", 0.0, 10.0);
         r("frt.k_factor", 0.0, 10.0);
+        r("frt.negative_sequence_k", 0.0, 10.0);
         r("frt.active_recovery_rate_pu_s", POS, 1000.0);
         r("chopper.on_pu", 1.0, 2.0);
         r("chopper.off_pu", 0.9, 2.0);

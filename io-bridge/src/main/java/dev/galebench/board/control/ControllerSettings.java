@@ -38,6 +38,7 @@ import java.util.Map;
  *   <tr><td>frtExitPu</td><td>frt.exit_deviation_pu</td><td>pu</td><td>0.08</td></tr>
  *   <tr><td>frtHoldS</td><td>frt.hold_s</td><td>s</td><td>0.1 (common practice 0.1-0.5)</td></tr>
  *   <tr><td>kFactor</td><td>frt.k_factor</td><td>1</td><td>2 (TransmissionCode 2007 / VDE-AR-N 4120)</td></tr>
+ *   <tr><td>negativeSequenceK</td><td>frt.negative_sequence_k</td><td>1</td><td>2 (VDE-AR-N 4120/4110: additional negative-sequence reactive current delta i2 = k2 delta u2, k2 like the positive k, from memory); 0 = balanced currents (i2* = 0)</td></tr>
  *   <tr><td>activeRecoveryRatePuPerS</td><td>frt.active_recovery_rate_pu_s</td><td>pu/s</td><td>2.0</td></tr>
  *   <tr><td>chopperOnPu, chopperOffPu</td><td>chopper.on_pu, chopper.off_pu</td><td>pu of Vdc nominal</td><td>1.10, 1.05 (common practice)</td></tr>
  *   <tr><td>pitchNaturalFrequencyHz</td><td>pitch.natural_frequency_hz</td><td>Hz</td><td>0.1 (Jonkman 2009: 0.6 rad/s)</td></tr>
@@ -60,7 +61,7 @@ public final class ControllerSettings {
     public final double dcVoltageRefPu, dcNaturalFrequencyHz, dcDampingRatio, dcVoltageFilterS;
     public final double voltageLoopGainPu, voltageFilterS, voltageReferenceFilterS;
     public final double pllNaturalFrequencyHz, pllDampingRatio, pllNormFloorPu;
-    public final double frtEnterPu, frtExitPu, frtHoldS, kFactor, activeRecoveryRatePuPerS;
+    public final double frtEnterPu, frtExitPu, frtHoldS, kFactor, negativeSequenceK, activeRecoveryRatePuPerS;
     public final double chopperOnPu, chopperOffPu;
     public final double pitchNaturalFrequencyHz, pitchDampingRatio;
     public final double undervoltagePu, undervoltageDelayS, undervoltageFastPu, undervoltageFastDelayS;
@@ -94,6 +95,7 @@ public final class ControllerSettings {
         frtExitPu = v.get("frt.exit_deviation_pu");
         frtHoldS = v.get("frt.hold_s");
         kFactor = v.get("frt.k_factor");
+        negativeSequenceK = v.get("frt.negative_sequence_k");
         activeRecoveryRatePuPerS = v.get("frt.active_recovery_rate_pu_s");
         chopperOnPu = v.get("chopper.on_pu");
         chopperOffPu = v.get("chopper.off_pu");

@@ -44,6 +44,15 @@ public final class ControllerTuning {
     public final double totalResistanceOhm, totalInductanceH, beyondTerminalResistanceOhm, beyondTerminalInductanceH;
     // current loops
     public final double gscAlphaRadPerS, gscKp, gscKi;
+    /**
+     * Negative-sequence current loop (PI in the frame at -theta on L_tot): {@code alpha2 = ln9/(2 t_r)}
+     * (half the positive loop's, under the DDSRF filter's cut-off {@code omega/sqrt2}: the loop's
+     * feedback is the filtered sequence), {@code Kp = alpha2 L_tot}, {@code Ki = alpha2^2 L_tot / 4}:
+     * on {@code s L_tot} a critically damped pair at {@code alpha2/2}. Not the IMC {@code Ki = alpha R}
+     * of the positive loop: that one rejects a voltage disturbance only with the plant's own
+     * {@code R/L} (about 44 ms), too slow against the positive loop's 2f reaction during a dip.
+     */
+    public final double gscNegAlphaRadPerS, gscNegKp, gscNegKi, ddsrfFilterS;
     public final double mscAlphaRadPerS, mscKpD, mscKpQ, mscKi;
     // dc loop
     public final double dcKp, dcKi;
@@ -86,6 +95,10 @@ public final class ControllerTuning {
         gscAlphaRadPerS = LN9 / s.gscCurrentRiseTimeS;
         gscKp = imcKp(gscAlphaRadPerS, totalInductanceH);
         gscKi = imcKi(gscAlphaRadPerS, totalResistanceOhm);
+        gscNegAlphaRadPerS = LN9 / (2.0 * s.gscCurrentRiseTimeS);
+        gscNegKp = gscNegAlphaRadPerS * totalInductanceH;
+        gscNegKi = 0.25 * gscNegAlphaRadPerS * gscNegAlphaRadPerS * totalInductanceH;
+        ddsrfFilterS = Ddsrf.filterTimeConstantS(w);
         mscAlphaRadPerS = LN9 / s.mscCurrentRiseTimeS;
         mscKpD = imcKp(mscAlphaRadPerS, p.dAxisInductanceH);
         mscKpQ = imcKp(mscAlphaRadPerS, p.qAxisInductanceH);
@@ -202,6 +215,12 @@ public final class ControllerTuning {
         gscCurrent.put("beyond_terminal_r_ohm", beyondTerminalResistanceOhm);
         gscCurrent.put("beyond_terminal_l_h", beyondTerminalInductanceH);
         gsc.put("current", gscCurrent);
+        final Map<String, Object> gscNeg = new LinkedHashMap<>();
+        gscNeg.put("kp", gscNegKp);
+        gscNeg.put("ki", gscNegKi);
+        gscNeg.put("alpha_rad_s", gscNegAlphaRadPerS);
+        gscNeg.put("ddsrf_filter_s", ddsrfFilterS);
+        gsc.put("negative_sequence_current", gscNeg);
         final Map<String, Object> dc = new LinkedHashMap<>();
         dc.put("kp", dcKp);
         dc.put("ki", dcKi);
@@ -233,6 +252,7 @@ public final class ControllerTuning {
 
         final Map<String, Object> frt = new LinkedHashMap<>();
         frt.put("k_factor", settings.kFactor);
+        frt.put("negative_sequence_k", settings.negativeSequenceK);
         frt.put("enter_deviation_pu", settings.frtEnterPu);
         frt.put("exit_deviation_pu", settings.frtExitPu);
         frt.put("hold_s", settings.frtHoldS);

@@ -21,11 +21,14 @@ import dev.galebench.plant.TurbineParameters;
  * Generator currents in generator convention. Per unit: grid voltages of the nominal LV peak
  * phase voltage, grid currents of the converter's rated peak current.
  *
- * <p>Negative sequence: the PLL and the current loops work on the positive-sequence frame only.
- * The grid-voltage feed-forward is not filtered in the sequence sense: it carries the grid's
- * negative-sequence voltage, so the converter reproduces it and draws little negative-sequence
- * current. The limiter bounds the dq (positive-sequence) references; the phase currents stay
- * near that bound (tested under an unbalanced dip).
+ * <p>Negative sequence: grid voltage and grid current are split into sequences by a DDSRF
+ * ({@link Ddsrf}); the PLL locks on the positive-sequence voltage, the positive-sequence loops
+ * regulate the decoupled positive-sequence current, and a second pair of PI loops in the frame
+ * at {@code -theta} regulates the negative-sequence current: zero outside FRT, during FRT
+ * {@code k2 (u2 - u2_0)} lagging the negative-sequence voltage by 90 degrees seen from the grid
+ * (VDE-AR-N 4120 style). The limiter gives the positive sequence priority and the negative
+ * sequence what is left of the FRT limit, so {@code |i+| + |i-|}, a bound of every phase peak,
+ * stays within it. Equations: {@code io-bridge/CONTROLLER.md}, "Negative sequence".
  */
 public final class ReferenceController implements BoardController {
     /** Trip causes (bits of {@link #tripCause()}). */
@@ -50,6 +53,7 @@ public final class ReferenceController implements BoardController {
     private final double rs, ld, lq, psi, polePairs, statorBase, mscLimitA;
     private final double kOptGen, ratedGenSpeed, ratedPower, maxTorque, transitionSpeed, minGenSpeed;
     private final double pitchKp, pitchKi, pitchThetaK, pitchMin, pitchMax, pitchRate;
+    private final double kNeg, gscNegKp, gscNegKi;
     private final double kFactor, kVoltage, limitNormal, limitFrt, recoveryRate, modLimit;
     private final double chopperOnV, chopperOffV;
     private final double uvPu, uvFastPu, ovPu, ovFastPu, gscOcA, mscOcA, dcOvV;
@@ -59,6 +63,13 @@ public final class ReferenceController implements BoardController {
     private final SrfPll pll = new SrfPll();
     private final PiRegulator gscPiD = new PiRegulator();
     private final PiRegulator gscPiQ = new PiRegulator();
+    private final PiRegulator gscNegPiD = new PiRegulator();
+    private final PiRegulator gscNegPiQ = new PiRegulator();
+    private final Ddsrf voltageSeq = new Ddsrf();
+    private final Ddsrf currentSeq = new Ddsrf();
+    private final LowPass preFaultNegVoltage = new LowPass();
+    private final MovingAverage negVoltageMeanD = new MovingAverage();
+    private final MovingAverage negVoltageMeanQ = new MovingAverage();
     private final PiRegulator dcPi = new PiRegulator();
     private final PiRegulator mscPiD = new PiRegulator();
     private final PiRegulator mscPiQ = new PiRegulator();
@@ -101,6 +112,7 @@ public final class ReferenceController implements BoardController {
     private double mscTorqueRefNm;
 
     // ---- observables (for tests, bring-up and the recorder)
+    private double negDRefPu, negQRefPu, negDPu, negQPu, negVoltagePu;
     private double idRefPu, iqRefPu, idPu, iqPu, voltagePu, voltageRefPu, mscIdA, mscIqA, mscIdRefA, mscIqRefA;
 
     // ---- bring-up overrides (NaN = off)
@@ -150,6 +162,9 @@ public final class ReferenceController implements BoardController {
         pitchMax = p.pitchMaxRad;
         pitchRate = p.pitchRateMaxRadPerS;
         kFactor = s.kFactor;
+        kNeg = s.negativeSequenceK;
+        gscNegKp = t.gscNegKp;
+        gscNegKi = t.gscNegKi;
         kVoltage = s.voltageLoopGainPu;
         limitNormal = s.gscCurrentLimitPu;
         limitFrt = s.gscCurrentLimitFrtPu;
@@ -185,6 +200,13 @@ public final class ReferenceController implements BoardController {
         pll.configure(t.pllKp, t.pllKi, t.turbine.gridFrequencyHz, s.pllNormFloorPu * vBase, ts);
         gscPiD.setGains(t.gscKp, t.gscKi);
         gscPiQ.setGains(t.gscKp, t.gscKi);
+        gscNegPiD.setGains(gscNegKp, gscNegKi);
+        gscNegPiQ.setGains(gscNegKp, gscNegKi);
+        voltageSeq.configure(t.ddsrfFilterS, ts);
+        currentSeq.configure(t.ddsrfFilterS, ts);
+        preFaultNegVoltage.configure(s.voltageReferenceFilterS, ts);
+        negVoltageMeanD.configure(0.5 / t.turbine.gridFrequencyHz, ts);
+        negVoltageMeanQ.configure(0.5 / t.turbine.gridFrequencyHz, ts);
         dcPi.setGains(t.dcKp, t.dcKi);
         dcPi.setLimits(-limitFrt * iBase * 2.0, limitFrt * iBase * 2.0);
         mscPiD.setGains(t.mscKpD, t.mscKi);
@@ -228,6 +250,15 @@ public final class ReferenceController implements BoardController {
         final double vq = Transforms.q(va, vb, c, s);
         final double id = Transforms.d(ia, ib, c, s);
         final double iq = Transforms.q(ia, ib, c, s);
+        voltageSeq.start(va, vb, c, s);
+        currentSeq.start(ia, ib, c, s);
+        gscNegPiD.resetTo(0.0);
+        gscNegPiQ.resetTo(0.0);
+        preFaultNegVoltage.reset(0.0);
+        negVoltageMeanD.reset(0.0);
+        negVoltageMeanQ.reset(0.0);
+        negVoltagePu = 0.0;
+        negDRefPu = negQRefPu = negDPu = negQPu = 0.0;
         // grid EMF estimate at steady state: e = v - (R + j w L) i beyond the terminal
         final double w = omegaNom;
         ffD.reset(vd - rBeyond * id + w * lBeyond * iq);
@@ -310,10 +341,20 @@ public final class ReferenceController implements BoardController {
         final double ib = Transforms.beta(in.gridCurrentBA, in.gridCurrentCA);
         final double c = pll.cos();
         final double s = pll.sin();
-        final double vd = Transforms.d(va, vb, c, s);
-        final double vq = Transforms.q(va, vb, c, s);
-        final double id = Transforms.d(ia, ib, c, s);
-        final double iq = Transforms.q(ia, ib, c, s);
+        // sequence separation (DDSRF): positive sequence decoupled from the 2f ripple of the
+        // negative sequence; on a balanced grid these are the plain Park components
+        voltageSeq.step(va, vb, c, s);
+        currentSeq.step(ia, ib, c, s);
+        final double vd = voltageSeq.posD;
+        final double vq = voltageSeq.posQ;
+        final double id = currentSeq.posD;
+        final double iq = currentSeq.posQ;
+        final double c2 = c * c - s * s;
+        final double s2 = 2.0 * s * c;
+        final double vnD = voltageSeq.negDBar();
+        final double vnQ = voltageSeq.negQBar();
+        final double inD = currentSeq.negDBar();
+        final double inQ = currentSeq.negQBar();
         final double omega = pll.omegaRadPerS();
         // grid EMF behind the transformers and the grid equivalent, from the measured voltage
         final double ea = va - rBeyond * ia - lBeyond * (ia - prevIAlpha) / h;
@@ -322,8 +363,17 @@ public final class ReferenceController implements BoardController {
         prevIBeta = ib;
         final double ed = ffD.step(Transforms.d(ea, eb, c, s));
         final double eq = ffQ.step(Transforms.q(ea, eb, c, s));
-        final double u = voltageFilter.step(Math.sqrt(va * va + vb * vb) / vBase);
+        final double u = voltageFilter.step(Math.sqrt(vd * vd + vq * vq) / vBase);
         voltagePu = u;
+        // negative-sequence voltage for the reference: the DDSRF output averaged over half a
+        // period. A balanced step leaves a decaying 2f transient in the DDSRF's negative sequence
+        // (its decoupling needs the filtered positive sequence, which lags): the average removes
+        // it, so a balanced dip asks for no negative-sequence current; a real one is constant here.
+        final double vnRefD = negVoltageMeanD.step(vnD);
+        final double vnRefQ = negVoltageMeanQ.step(vnQ);
+        final double vnMag = Math.sqrt(vnRefD * vnRefD + vnRefQ * vnRefQ);
+        final double u2 = vnMag / vBase;
+        negVoltagePu = u2;
 
         // ================= fault ride-through
         final double u0 = preFaultVoltage.value();
@@ -342,11 +392,18 @@ public final class ReferenceController implements BoardController {
             // first milliseconds of the dip (before detection) is not counted as pre-fault
             reactivePreFaultPu = reactiveMean.value();
         }
+        // the PLL locks on the positive sequence: the negative-sequence estimate is taken off
+        // its input (for the EMF: E- = V- - (R - j w L) I- in the frame at -theta)
         if (frtActive) {
-            pll.step(ea * pllOffsetCos - eb * pllOffsetSin, ea * pllOffsetSin + eb * pllOffsetCos);
+            final double enD = vnD - rBeyond * inD - omega * lBeyond * inQ;
+            final double enQ = vnQ - rBeyond * inQ + omega * lBeyond * inD;
+            final double epa = ea - Ddsrf.negAlpha(enD, enQ, c, s);
+            final double epb = eb - Ddsrf.negBeta(enD, enQ, c, s);
+            pll.step(epa * pllOffsetCos - epb * pllOffsetSin, epa * pllOffsetSin + epb * pllOffsetCos);
         } else {
-            pll.step(va, vb);
+            pll.step(va - Ddsrf.negAlpha(vnD, vnQ, c, s), vb - Ddsrf.negBeta(vnD, vnQ, c, s));
             preFaultVoltage.step(u);
+            preFaultNegVoltage.step(u2);
         }
         frtWasActive = frtActive;
 
@@ -387,13 +444,45 @@ public final class ReferenceController implements BoardController {
         idPu = id / iBase;
         iqPu = iq / iBase;
 
+        // ================= negative-sequence reference (frame at -theta, pu)
+        // FRT: |i2| = k2 (u2 - u2_0), lagging the negative-sequence voltage by 90 degrees seen
+        // from the grid (current towards the grid leads it: i2 = -j |i2| v2/|v2| in this frame),
+        // so the drop over the grid impedance lowers u2. Outside FRT: 0 (balanced currents).
+        // Limiter: the positive sequence keeps its limited reference; the negative sequence gets
+        // what is left, |i2| <= I_max - |i1|, so every phase peak (<= |i1| + |i2|) is within I_max.
+        double i2Mag = 0.0;
+        if (frtActive && kNeg > 0.0 && u2 > 0.005) {
+            final double du2 = u2 - preFaultNegVoltage.value();
+            i2Mag = du2 > 0.0 ? kNeg * du2 : 0.0;
+            final double room = limit - Math.sqrt(idRefPu * idRefPu + iqRefPu * iqRefPu);
+            if (i2Mag > room) {
+                i2Mag = room > 0.0 ? room : 0.0;
+            }
+        }
+        if (i2Mag > 0.0) {
+            negDRefPu = i2Mag * vnRefQ / vnMag;
+            negQRefPu = -i2Mag * vnRefD / vnMag;
+        } else {
+            negDRefPu = 0.0;
+            negQRefPu = 0.0;
+        }
+        negDPu = inD / iBase;
+        negQPu = inQ / iBase;
+
         // ================= grid-side current loops (IMC), converter voltage reference
         final double idRefA = idRefPu * iBase;
         final double iqRefA = iqRefPu * iBase;
         final double intD = gscPiD.integral();
         final double intQ = gscPiQ.integral();
-        double vcd = ed + gscPiD.step(idRefA - id, h, false) - omega * lTot * iq;
-        double vcq = eq + gscPiQ.step(iqRefA - iq, h, false) + omega * lTot * id;
+        // positive-sequence feedback: the Park current less the negative-sequence *reference*
+        // seen in this frame (X- e^{-j2theta}); with i2* = 0 it is the plain Park current, so a
+        // balanced grid sees exactly the positive-sequence loops as before
+        final double nRefDA = negDRefPu * iBase;
+        final double nRefQA = negQRefPu * iBase;
+        final double idFb = Transforms.d(ia, ib, c, s) - (nRefDA * c2 + nRefQA * s2);
+        final double iqFb = Transforms.q(ia, ib, c, s) - (nRefQA * c2 - nRefDA * s2);
+        double vcd = ed + gscPiD.step(idRefA - idFb, h, false) - omega * lTot * iqFb;
+        double vcq = eq + gscPiQ.step(iqRefA - iqFb, h, false) + omega * lTot * idFb;
         final double vmax = modLimit * vdc * Transforms.INV_SQRT3;
         final double vmag = Math.sqrt(vcd * vcd + vcq * vcq);
         if (vmag > vmax) {
@@ -416,6 +505,44 @@ public final class ReferenceController implements BoardController {
             }
             gscPiD.resetTo(intD);
             gscPiQ.resetTo(intQ);
+        }
+        // negative-sequence current loop (PI in the frame at -theta on the DDSRF-filtered current;
+        // cross coupling of that frame: L di/dt - j w L i). Its voltage adds to the positive-sequence
+        // one; it gets the modulation reach the positive sequence leaves: when the instantaneous
+        // sum |v+ + v- e^{-j2theta}| (positive frame) would exceed the limit, the negative part is
+        // scaled to reach it exactly (positive sequence first).
+        // The loop runs during FRT only. Outside FRT it is off (integrators at 0) and the
+        // negative-sequence current stays small as before, open loop: the grid-EMF feed-forward
+        // carries the grid's negative-sequence voltage, so the converter reproduces it. Why off:
+        // a balanced step leaves a 2f transient in the DDSRF's filtered current, and a loop
+        // acting on it changes the tuned positive-sequence step response (tested: 9 % overshoot).
+        final double negIntD = gscNegPiD.integral();
+        final double negIntQ = gscNegPiQ.integral();
+        double vnCd = 0.0;
+        double vnCq = 0.0;
+        if (frtActive) {
+            vnCd = gscNegPiD.step(negDRefPu * iBase - inD, h, false) + omega * lTot * inQ;
+            vnCq = gscNegPiQ.step(negQRefPu * iBase - inQ, h, false) - omega * lTot * inD;
+        } else {
+            gscNegPiD.resetTo(0.0);
+            gscNegPiQ.resetTo(0.0);
+        }
+        final double nPd = vnCd * c2 + vnCq * s2;
+        final double nPq = vnCq * c2 - vnCd * s2;
+        final double sd = vcd + nPd;
+        final double sq = vcq + nPq;
+        if (sd * sd + sq * sq > vmax * vmax) {
+            // |p + k n|^2 = vmax^2, k in [0, 1]
+            final double nn = nPd * nPd + nPq * nPq;
+            final double pn = vcd * nPd + vcq * nPq;
+            final double pp = vcd * vcd + vcq * vcq;
+            final double disc = pn * pn - nn * (pp - vmax * vmax);
+            double k = disc > 0.0 && nn > 0.0 ? (-pn + Math.sqrt(disc)) / nn : 0.0;
+            k = k < 0.0 ? 0.0 : (k > 1.0 ? 1.0 : k);
+            vnCd *= k;
+            vnCq *= k;
+            gscNegPiD.resetTo(negIntD);
+            gscNegPiQ.resetTo(negIntQ);
         }
 
         // ================= machine side
@@ -514,7 +641,9 @@ public final class ReferenceController implements BoardController {
             final double sAdv = adv - adv * adv * adv * (1.0 / 6.0);
             final double ca = c * cAdv - s * sAdv;
             final double sn = s * cAdv + c * sAdv;
-            writeDuties(Transforms.alphaOf(vcd, vcq, ca, sn), Transforms.betaOf(vcd, vcq, ca, sn), vdc, out, true);
+            // negative sequence turns the other way: e^{-j(theta + adv)}
+            writeDuties(Transforms.alphaOf(vcd, vcq, ca, sn) + Ddsrf.negAlpha(vnCd, vnCq, ca, sn),
+                    Transforms.betaOf(vcd, vcq, ca, sn) + Ddsrf.negBeta(vnCd, vnCq, ca, sn), vdc, out, true);
             final double advE = we * angleAdvanceS;
             final double cAdvE = 1.0 - 0.5 * advE * advE;
             final double sAdvE = advE - advE * advE * advE * (1.0 / 6.0);
@@ -742,7 +871,32 @@ public final class ReferenceController implements BoardController {
         return iqPu;
     }
 
-    /** Filtered terminal voltage magnitude, pu. */
+    /** Negative-sequence current reference, d in the frame at -theta, pu. */
+    public double gridNegDCurrentRefPu() {
+        return negDRefPu;
+    }
+
+    /** Negative-sequence current reference, q in the frame at -theta, pu. */
+    public double gridNegQCurrentRefPu() {
+        return negQRefPu;
+    }
+
+    /** Negative-sequence current (DDSRF), d in the frame at -theta, pu. */
+    public double gridNegDCurrentPu() {
+        return negDPu;
+    }
+
+    /** Negative-sequence current (DDSRF), q in the frame at -theta, pu. */
+    public double gridNegQCurrentPu() {
+        return negQPu;
+    }
+
+    /** Negative-sequence terminal voltage magnitude (DDSRF), pu. */
+    public double negativeSequenceVoltagePu() {
+        return negVoltagePu;
+    }
+
+    /** Filtered terminal voltage magnitude (positive sequence), pu. */
     public double terminalVoltagePu() {
         return voltagePu;
     }

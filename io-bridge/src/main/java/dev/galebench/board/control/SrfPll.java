@@ -15,9 +15,10 @@ package dev.galebench.board.control;
  * voltage, which keeps the angle from being pulled around by a residual voltage that is mostly
  * the converter's own reactive current. Cost: slower re-lock after a deep dip with a phase jump.
  *
- * <p>Negative sequence: not separated. An unbalanced voltage gives a ripple at twice the grid
- * frequency in {@code v_q}; the loop's low-pass character (bandwidth about 2 wn) attenuates it
- * into a small angle ripple. The controller is positive-sequence oriented.
+ * <p>Negative sequence: not separated here. Fed an unbalanced voltage, {@code v_q} carries a
+ * ripple at twice the grid frequency. The reference controller feeds it the positive sequence
+ * from its {@link Ddsrf} (the measured voltage less the negative-sequence estimate), so it locks
+ * on the positive sequence without that ripple.
  */
 public final class SrfPll {
     private double kp;

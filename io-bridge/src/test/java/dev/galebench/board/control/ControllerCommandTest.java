@@ -62,6 +62,23 @@ class ControllerCommandTest {
         assertEquals(0, run("show"));
         assertTrue(out.toString().contains("gsc.current.kp"), out.toString());
         assertTrue(out.toString().contains("pll.ki"));
+        assertTrue(out.toString().contains("frt.negative_sequence_k"), out.toString());
+        assertTrue(out.toString().contains("gsc.negative_sequence_current.kp"), out.toString());
+    }
+
+    @Test
+    void shouldPrintTheNegativeSequenceSetting(@TempDir Path dir) throws Exception {
+        final Path f = dir.resolve("c.yaml");
+        Files.writeString(f, "frt:\n  negative_sequence_k: 0\n");
+        assertEquals(0, run("show", "--controller", f.toString(), "--json"));
+        final JsonNode root = new ObjectMapper().readTree(out.toString());
+        assertEquals(0.0, root.path("frt").path("negative_sequence_k").asDouble(-1), 0.0);
+        final JsonNode neg = root.path("gsc").path("negative_sequence_current");
+        // alpha2 = ln9 / (2 t_r), Kp = alpha2 L_tot, Ki = alpha2^2 L_tot / 4 (ControllerTuning)
+        final double a2 = Math.log(9) / (2 * 0.010);
+        final double l = root.path("gsc").path("current").path("l_h").asDouble();
+        assertEquals(a2 * l, neg.path("kp").asDouble(), 1e-12);
+        assertEquals(0.25 * a2 * a2 * l, neg.path("ki").asDouble(), 1e-12);
     }
 
     @Test

@@ -48,6 +48,18 @@ class ControllerFileTest {
     }
 
     @Test
+    void shouldReadTheNegativeSequenceKFactorAndRejectBadValues() throws IOException {
+        assertEquals(2.0, ControllerFile.defaults().negativeSequenceK, "default like the positive k");
+        assertEquals(0.0, ControllerFile.load(write("frt:\n  negative_sequence_k: 0\n")).negativeSequenceK);
+        final Path f = write("frt:\n  k_factor: 2\n  negative_sequence_k: -1\n");
+        final IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> ControllerFile.load(f));
+        assertTrue(e.getMessage().contains(f + ":3: frt.negative_sequence_k: -1.0 is outside [0.0, 10.0]"), e.getMessage());
+        final Path g = write("frt:\n  negative_sequence_k: strong\n");
+        final IllegalArgumentException e2 = assertThrows(IllegalArgumentException.class, () -> ControllerFile.load(g));
+        assertTrue(e2.getMessage().contains(g + ":2: frt.negative_sequence_k: not a number: 'strong'"), e2.getMessage());
+    }
+
+    @Test
     void shouldRejectInconsistentThresholds() throws IOException {
         final Path f = write("frt:\n  exit_deviation_pu: 0.12\nchopper:\n  off_pu: 1.2\n");
         final IllegalArgumentException e = assertThrows(IllegalArgumentException.class, () -> ControllerFile.load(f));
